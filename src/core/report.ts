@@ -1,0 +1,18 @@
+/** A report table: the one shape every sink renders (contract in DESIGN.md). */
+export type Cell = number | string | null;
+
+export interface ReportTable {
+  title: string;
+  columns: string[];
+  rows: Cell[][];
+  notes: string[];
+}
+
+export function table(title: string, columns: string[], rows: Cell[][], notes: string[] = []): ReportTable {
+  for (const r of rows) {
+    if (r.length !== columns.length) {
+      throw new Error(`report table "${title}": a row has ${r.length} cells for ${columns.length} columns`);
+    }
+  }
+  return { title, columns, rows, notes };
+}

@@ -13,6 +13,8 @@ import chi2CdfImpl = require("@stdlib/stats-base-dists-chisquare-cdf");
 import chi2QuantileImpl = require("@stdlib/stats-base-dists-chisquare-quantile");
 import fCdfImpl = require("@stdlib/stats-base-dists-f-cdf");
 import fQuantileImpl = require("@stdlib/stats-base-dists-f-quantile");
+import gammainc = require("@stdlib/math-base-special-gammainc");
+import betainc = require("@stdlib/math-base-special-betainc");
 
 function checkProb(p: number): void {
   if (!(p >= 0 && p <= 1)) throw new RangeError(`probability must lie in [0, 1], got ${p}`);
@@ -35,7 +37,16 @@ export function normalSf(x: number): number {
 /** Standard normal quantile Φ⁻¹(p). */
 export function normalQuantile(p: number): number {
   checkProb(p);
-  return normalQuantileImpl(p, 0, 1);
+  const x = normalQuantileImpl(p, 0, 1);
+  if (!Number.isFinite(x) || p === 0.5) return x;
+  // One Newton step on the tail that p lies in: the library's rational approximation loses
+  // about six digits below p = 1e-10, while Φ itself (through erfc) keeps full relative precision.
+  const lowerTail = p < 0.5;
+  const q = lowerTail ? p : 1 - p;
+  const xl = lowerTail ? x : -x;
+  const density = Math.exp(-0.5 * xl * xl) / Math.sqrt(2 * Math.PI);
+  const refined = xl - (normalCdf(xl) - q) / density;
+  return lowerTail ? refined : -refined;
 }
 
 /** Student t cdf with df degrees of freedom. */
@@ -61,8 +72,11 @@ export function chi2Cdf(x: number, df: number): number {
   return chi2CdfImpl(x, df);
 }
 
+/** Chi-square upper tail as the regularised upper incomplete gamma Q(df/2, x/2), without 1 − cdf cancellation. */
 export function chi2Sf(x: number, df: number): number {
-  return 1 - chi2Cdf(x, df);
+  checkDf("degrees of freedom", df);
+  if (x <= 0) return 1;
+  return gammainc(x / 2, df / 2, true, true);
 }
 
 export function chi2Quantile(p: number, df: number): number {
@@ -78,8 +92,12 @@ export function fCdf(x: number, d1: number, d2: number): number {
   return fCdfImpl(x, d1, d2);
 }
 
+/** F upper tail as I_{d2/(d2 + d1·x)}(d2/2, d1/2), the regularised incomplete beta, without cancellation. */
 export function fSf(x: number, d1: number, d2: number): number {
-  return 1 - fCdf(x, d1, d2);
+  checkDf("numerator degrees of freedom", d1);
+  checkDf("denominator degrees of freedom", d2);
+  if (x <= 0) return 1;
+  return betainc(d2 / (d2 + d1 * x), d2 / 2, d1 / 2);
 }
 
 export function fQuantile(p: number, d1: number, d2: number): number {

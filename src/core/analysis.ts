@@ -1,0 +1,110 @@
+/**
+ * analyse(series, options) → Report: the single entry every sink (worksheet functions, pane,
+ * batch) calls, so that all of them render the same tables. This version covers the data
+ * summary, the outlook of one registered method and its fit summary; later sections
+ * (season, checks, backtest) add tables here, not in the sinks.
+ */
+import { addWeeks, isoDate } from "./series/calendar";
+import { InputError } from "./series/errors";
+import type { WeeklySeries } from "./series/types";
+import { getModel } from "./models/registry";
+import type { Cell, ReportTable } from "./report";
+import { table } from "./report";
+
+export interface AnalysisOptions {
+  /** Method code (DESIGN.md); default "lastyear" when two years of history exist, else "lastweek". */
+  method?: string;
+  /** Weeks ahead, 1–260; default 12. */
+  horizon?: number;
+  /** Central interval coverage levels in percent; default [80, 95]. */
+  levels?: number[];
+}
+
+export interface Report {
+  tables: { data: ReportTable; outlook: ReportTable; fit: ReportTable };
+  /** Intake warnings followed by the model's notes. */
+  warnings: string[];
+  /** The last week of data as YYYY-MM-DD, or null for an undated series. */
+  lastWeek: string | null;
+  /** The options actually used, after defaults. */
+  options: Required<AnalysisOptions>;
+}
+
+export const MAX_HORIZON = 260;
+export const DEFAULT_HORIZON = 12;
+export const DEFAULT_LEVELS = [80, 95];
+
+export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = {}): Required<AnalysisOptions> {
+  const horizon = options.horizon ?? DEFAULT_HORIZON;
+  if (!Number.isInteger(horizon) || horizon < 1 || horizon > MAX_HORIZON) {
+    throw new InputError("BAD_OPTION", `The number of weeks ahead must be a whole number from 1 to ${MAX_HORIZON}; got ${horizon}.`);
+  }
+  const levels = options.levels ?? DEFAULT_LEVELS;
+  if (levels.length === 0) throw new InputError("BAD_OPTION", "Give at least one coverage level, such as 80 or 95.");
+  for (const l of levels) {
+    if (!(typeof l === "number" && l > 0 && l < 100)) {
+      throw new InputError("BAD_OPTION", `A coverage level must be a percentage between 0 and 100, such as 80 or 95; got ${l}.`);
+    }
+  }
+  const method = options.method ?? (series.values.length >= 104 ? "lastyear" : "lastweek");
+  return { method, horizon, levels: [...levels] };
+}
+
+function levelLabel(l: number): string {
+  return `${Number(l.toFixed(4))}%`;
+}
+
+function dataTable(series: WeeklySeries): ReportTable {
+  const n = series.values.length;
+  const dated = series.dates.length === n && n > 0;
+  const filled = series.filled.filter(Boolean).length;
+  const weekdays = ["Sunday", "Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday"];
+  const rows: Cell[][] = [
+    ["Series", series.name ?? null],
+    ["Weeks read", n],
+    ["First week ending", dated ? isoDate(series.dates[0]) : null],
+    ["Last week ending", dated ? isoDate(series.dates[n - 1]) : null],
+    ["Weeks end on", series.weekday !== undefined ? weekdays[series.weekday] : null],
+    ["Weeks filled", filled],
+    ["Last rate", n > 0 ? series.values[n - 1] : null],
+  ];
+  return table("Data", ["Item", "Value"], rows, [...series.warnings]);
+}
+
+export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Report {
+  const opts = resolveOptions(series, options);
+  const model = getModel(opts.method);
+  const n = series.values.length;
+  const need = model.minLength();
+  if (n < need) {
+    throw new InputError("TOO_FEW_POINTS", `${model.label} needs at least ${need} weeks of rates; the data has ${n}.`);
+  }
+  const fitted = model.fit(series.values);
+  const fc = fitted.forecast(opts.horizon, opts.levels);
+  const dated = series.dates.length === n && n > 0;
+  const last = dated ? series.dates[n - 1] : null;
+
+  const columns = ["Step", "Week ending", "Forecast"];
+  for (const l of opts.levels) columns.push(`Low ${levelLabel(l)}`, `High ${levelLabel(l)}`);
+  const rows: Cell[][] = [];
+  for (let s = 0; s < opts.horizon; s++) {
+    const row: Cell[] = [s + 1, last ? isoDate(addWeeks(last, s + 1)) : null, fc.point[s]];
+    for (let i = 0; i < opts.levels.length; i++) row.push(fc.lower[i][s], fc.upper[i][s]);
+    rows.push(row);
+  }
+  const summary = fitted.summary();
+  const outlook = table(`Outlook: ${model.label}`, columns, rows, [
+    `Method: ${summary.structure}.`,
+    "Forecasts are statistical estimates from past rates only; they are not advice to book, fix or trade.",
+  ]);
+  const fitRows: Cell[][] = summary.parameters.map((p) => [p.name, p.value, p.se ?? null]);
+  fitRows.push(["AICc", Number.isFinite(fitted.aicc) ? fitted.aicc : null, null]);
+  const fit = table(`Fit: ${model.label}`, ["Parameter", "Value", "Std. error"], fitRows, summary.notes);
+
+  return {
+    tables: { data: dataTable(series), outlook, fit },
+    warnings: [...series.warnings, ...summary.notes],
+    lastWeek: last ? isoDate(last) : null,
+    options: opts,
+  };
+}

@@ -1,0 +1,16 @@
+/** Optimisers on ℝⁿ and the transforms that let them respect parameter bounds. */
+export { nelderMead } from "./nelderMead";
+export type { NelderMeadOptions, MinimiseResult, Objective } from "./nelderMead";
+export { bfgs, numericalGradient } from "./bfgs";
+export type { BfgsOptions, BfgsResult } from "./bfgs";
+export {
+  toBounded,
+  toUnbounded,
+  toBoundedScalar,
+  toUnboundedScalar,
+  boundedDerivativeScalar,
+  boundedJacobianDiagonal,
+  unboundedObjective,
+  unboundedGradient,
+} from "./bounds";
+export type { Bound } from "./bounds";

@@ -1,0 +1,67 @@
+import { analyse } from "../../src/core/analysis";
+import { readWeekly } from "../../src/core/series/intake";
+import { InputError } from "../../src/core/series/errors";
+import { lastYear } from "../../src/core/models/naive";
+
+// An invented lane: 120 weeks ending on Fridays from 2024-08-02, ISO text dates.
+function laneBlock(n: number): { values: unknown[][]; dates: unknown[][] } {
+  const values: unknown[][] = [["Lane rate"]];
+  const dates: unknown[][] = [["Week ending"]];
+  const start = Date.UTC(2024, 7, 2);
+  for (let t = 0; t < n; t++) {
+    values.push([2000 + 150 * Math.sin((2 * Math.PI * t) / 52) + 3 * t]);
+    dates.push([new Date(start + t * 7 * 86_400_000).toISOString().slice(0, 10)]);
+  }
+  return { values, dates };
+}
+
+describe("analyse()", () => {
+  const { values, dates } = laneBlock(120);
+  const series = readWeekly(values, { dates });
+
+  test("outlook rows carry the next week-ending dates and the model's own numbers", () => {
+    const r = analyse(series, { method: "lastyear", horizon: 4, levels: [80, 95] });
+    const t = r.tables.outlook;
+    expect(t.columns).toEqual(["Step", "Week ending", "Forecast", "Low 80%", "High 80%", "Low 95%", "High 95%"]);
+    expect(r.lastWeek).toBe("2026-11-13"); // 2024-08-02 + 119 weeks
+    expect(t.rows.map((row) => row[1])).toEqual(["2026-11-20", "2026-11-27", "2026-12-04", "2026-12-11"]);
+    const fc = lastYear.fit(series.values).forecast(4, [80, 95]);
+    expect(t.rows[2][2]).toBe(fc.point[2]);
+    expect(t.rows[2][5]).toBe(fc.lower[1][2]);
+    expect(t.notes.join(" ")).toMatch(/not advice to book, fix or trade/);
+  });
+
+  test("the data table states what was read", () => {
+    const r = analyse(series, { method: "lastweek", horizon: 1 });
+    const d = Object.fromEntries(r.tables.data.rows.map((row) => [row[0], row[1]]));
+    expect(d["Series"]).toBe("Lane rate");
+    expect(d["Weeks read"]).toBe(120);
+    expect(d["First week ending"]).toBe("2024-08-02");
+    expect(d["Weeks end on"]).toBe("Friday");
+  });
+
+  test("defaults: seasonal naive with two years of history, 12 weeks, 80 and 95", () => {
+    const r = analyse(series);
+    expect(r.options).toEqual({ method: "lastyear", horizon: 12, levels: [80, 95] });
+    expect(r.tables.outlook.rows).toHaveLength(12);
+  });
+
+  test("bad options and short data are InputErrors with plain sentences", () => {
+    const expectCode = (fn: () => unknown, code: string, text: RegExp): void => {
+      try {
+        fn();
+        throw new Error("expected an InputError");
+      } catch (e) {
+        expect(e).toBeInstanceOf(InputError);
+        expect((e as InputError).code).toBe(code);
+        expect((e as InputError).message).toMatch(text);
+      }
+    };
+    expectCode(() => analyse(series, { horizon: 0 }), "BAD_OPTION", /whole number from 1 to 260/);
+    expectCode(() => analyse(series, { horizon: 2.5 }), "BAD_OPTION", /whole number/);
+    expectCode(() => analyse(series, { levels: [100] }), "BAD_OPTION", /between 0 and 100/);
+    expectCode(() => analyse(series, { method: "crystal" }), "BAD_OPTION", /not available/);
+    const short = readWeekly(laneBlock(30).values, { dates: laneBlock(30).dates });
+    expectCode(() => analyse(short, { method: "lastyear" }), "TOO_FEW_POINTS", /at least 54 weeks/);
+  });
+});

@@ -1,4 +1,4 @@
-"""Reference for src/core/math/ols.ts: statsmodels OLS on the Longley data.
+"""Reference for src/core/math/ols.ts: statsmodels OLS on the Longley and macrodata sets.
 
 The Longley (1967) employment data ship with statsmodels (`statsmodels.datasets.longley`).
 TOTEMP is regressed on GNPDEFL, GNP, UNEMP, ARMED, POP, YEAR and a constant, the NIST StRD
@@ -11,7 +11,7 @@ from statsmodels.datasets import longley
 REGRESSORS = ["GNPDEFL", "GNP", "UNEMP", "ARMED", "POP", "YEAR"]
 
 
-def build():
+def build_longley():
     data = longley.load_pandas().data
     y = data["TOTEMP"].to_numpy(dtype=float)
     exog = data[REGRESSORS].to_numpy(dtype=float)
@@ -49,4 +49,23 @@ def build():
         "aic": res0.aic,
         "bic": res0.bic,
     }
-    return {"ols_longley.json": out}
+    return out
+
+
+def build_macro():
+    """A well-conditioned, larger fit: quarterly US macrodata shipped with statsmodels,
+    log real consumption on a constant, log real GDP, log real investment and the
+    unemployment rate (203 quarters)."""
+    from statsmodels.datasets import macrodata
+    d = macrodata.load_pandas().data
+    y = np.log(d["realcons"].to_numpy(dtype=float))
+    X = np.column_stack([np.ones(len(y)), np.log(d["realgdp"].to_numpy(dtype=float)),
+                         np.log(d["realinv"].to_numpy(dtype=float)), d["unemp"].to_numpy(dtype=float)])
+    res = sm.OLS(y, X).fit()
+    return {"y": y, "X": X, "params": res.params, "bse": res.bse, "pvalues": res.pvalues,
+            "rsquared": res.rsquared, "rsquared_adj": res.rsquared_adj, "llf": res.llf,
+            "aic": res.aic, "bic": res.bic, "scale": res.scale}
+
+
+def build():
+    return {"ols_longley.json": build_longley(), "ols_macrodata.json": build_macro()}

@@ -155,3 +155,33 @@ describe("ols errors", () => {
     expect(f.coef[0]).toBeCloseTo(2 + 3 / 14, 12);
   });
 });
+
+describe("ols on the statsmodels macrodata set", () => {
+  // Reference: statsmodels OLS via test/reference/make_ols.py (log real consumption on log
+  // real GDP, log real investment and unemployment, 203 quarters). A well-conditioned fit:
+  // agreement to 1e-10 relative is what two QR solvers in double precision give here.
+  interface Macro {
+    y: number[]; X: number[][]; params: number[]; bse: number[]; pvalues: number[]; rsquared: number;
+    rsquared_adj: number; llf: number; aic: number; bic: number; scale: number;
+  }
+  const fx = loadFixture<Macro>("ols_macrodata.json");
+  const r = ols(fx.X, Float64Array.from(fx.y));
+  const rel = (a: number, b: number): number => Math.abs(a - b) / Math.max(Math.abs(b), 1e-300);
+
+  test("coefficients, standard errors and p-values", () => {
+    fx.params.forEach((b, i) => expect(rel(r.coef[i], b)).toBeLessThan(1e-10));
+    fx.bse.forEach((s, i) => expect(rel(r.se[i], s)).toBeLessThan(1e-10));
+    // p-values pass through the t distribution: 1e-8 relative (its cdf's accuracy), and an
+    // absolute floor for p-values that are zero to double precision.
+    fx.pvalues.forEach((p, i) => expect(Math.abs(r.pValue[i] - p)).toBeLessThanOrEqual(Math.max(1e-8 * p, 1e-300)));
+  });
+
+  test("fit statistics", () => {
+    expect(rel(r.sigma2, fx.scale)).toBeLessThan(1e-10);
+    expect(rel(r.rSquared, fx.rsquared)).toBeLessThan(1e-12);
+    expect(rel(r.adjRSquared, fx.rsquared_adj)).toBeLessThan(1e-12);
+    expect(rel(r.logLik, fx.llf)).toBeLessThan(1e-10);
+    expect(rel(r.aic, fx.aic)).toBeLessThan(1e-10);
+    expect(rel(r.bic, fx.bic)).toBeLessThan(1e-10);
+  });
+});

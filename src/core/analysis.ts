@@ -7,6 +7,7 @@
 import { addWeeks, isoDate } from "./series/calendar";
 import { InputError } from "./series/errors";
 import type { WeeklySeries } from "./series/types";
+import { WEEKDAY_NAMES } from "./series/wording";
 import { getModel } from "./models/registry";
 import type { Cell, ReportTable } from "./report";
 import { table } from "./report";
@@ -54,18 +55,19 @@ function levelLabel(l: number): string {
   return `${Number(l.toFixed(4))}%`;
 }
 
-function dataTable(series: WeeklySeries): ReportTable {
+/** What the intake read, as the Data table every sink shows (the pane shows it before a run). */
+export function describeData(series: WeeklySeries): ReportTable {
   const n = series.values.length;
   const dated = series.dates.length === n && n > 0;
   const filled = series.filled.filter(Boolean).length;
-  const weekdays = ["Sunday", "Monday", "Tuesday", "Wednesday", "Thursday", "Friday", "Saturday"];
   const rows: Cell[][] = [
     ["Series", series.name ?? null],
     ["Weeks read", n],
     ["First week ending", dated ? isoDate(series.dates[0]) : null],
     ["Last week ending", dated ? isoDate(series.dates[n - 1]) : null],
-    ["Weeks end on", series.weekday !== undefined ? weekdays[series.weekday] : null],
+    ["Weeks end on", series.weekday !== undefined ? WEEKDAY_NAMES[series.weekday] : null],
     ["Weeks filled", filled],
+    ["Dates", dated ? "read from the sheet" : "none given: consecutive weeks assumed"],
     ["Last rate", n > 0 ? series.values[n - 1] : null],
   ];
   return table("Data", ["Item", "Value"], rows, [...series.warnings]);
@@ -102,7 +104,7 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Re
   const fit = table(`Fit: ${model.label}`, ["Parameter", "Value", "Std. error"], fitRows, summary.notes);
 
   return {
-    tables: { data: dataTable(series), outlook, fit },
+    tables: { data: describeData(series), outlook, fit },
     warnings: [...series.warnings, ...summary.notes],
     lastWeek: last ? isoDate(last) : null,
     options: opts,

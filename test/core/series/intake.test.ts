@@ -38,8 +38,8 @@ describe("readWeekly without dates", () => {
   });
 
   test("a header is found and named", () => {
-    const s = readWeekly(column(["  Shanghai–Rotterdam FEU ", 2100, 2150, 2190]));
-    expect(s.name).toBe("Shanghai–Rotterdam FEU");
+    const s = readWeekly(column(["  Halden–Corvane FEU ", 2100, 2150, 2190]));
+    expect(s.name).toBe("Halden–Corvane FEU");
     expect(Array.from(s.values)).toEqual([2100, 2150, 2190]);
   });
 
@@ -79,10 +79,10 @@ describe("readWeekly with dates", () => {
   });
 
   test("header over both columns", () => {
-    const s = readWeekly(column(["WCI Shanghai–Genoa", ...rates]), {
+    const s = readWeekly(column(["TBX Estmar–Halden", ...rates]), {
       dates: column(["Week ending", ...weekly("2025-01-03", 6)]),
     });
-    expect(s.name).toBe("WCI Shanghai–Genoa");
+    expect(s.name).toBe("TBX Estmar–Halden");
     expect(s.values.length).toBe(6);
   });
 

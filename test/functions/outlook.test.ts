@@ -1,0 +1,209 @@
+/**
+ * FAIRLEAD.OUTLOOK and the error mapping every worksheet function shares.
+ *
+ * Excel's CustomFunctions global exists only inside Office, so a stand-in with the same
+ * constructor and ErrorCode values ("#VALUE!", "#NUM!", "#N/A", as in
+ * @types/custom-functions-runtime) is installed on globalThis.
+ */
+import { InputError, InputErrorCode } from "../../src/core/series/errors";
+import {
+  ArgumentError,
+  asNumberProblem,
+  excelErrorSpec,
+  guarded,
+  INPUT_ERROR_VALUES,
+  toCustomFunctionsError,
+} from "../../src/functions/errors";
+import { table } from "../../src/core/report";
+import { outlook, outlookRows, readCoverage } from "../../src/functions/functions";
+
+class FakeError {
+  constructor(
+    readonly code: string,
+    readonly message?: string,
+  ) {}
+}
+const fakeRuntime = {
+  Error: FakeError,
+  ErrorCode: { invalidValue: "#VALUE!", notAvailable: "#N/A", invalidNumber: "#NUM!" },
+};
+Object.assign(globalThis, { CustomFunctions: fakeRuntime });
+
+/** Excel passes null for an omitted optional argument, which the signatures type as undefined. */
+const OMITTED = null as unknown as undefined;
+
+/** Runs `f` and returns what it threw. */
+function thrown(f: () => unknown): unknown {
+  try {
+    f();
+  } catch (e) {
+    return e;
+  }
+  throw new Error("expected a throw");
+}
+
+function excelError(f: () => unknown): FakeError {
+  const e = thrown(f);
+  expect(e).toBeInstanceOf(FakeError);
+  return e as FakeError;
+}
+
+describe("error mapping", () => {
+  // The table the worksheet functions promise (src/functions/errors.ts header).
+  const expected: Record<InputErrorCode, string> = {
+    NOT_A_NUMBER: "#VALUE!",
+    CELL_ERROR: "#VALUE!",
+    NOT_A_DATE: "#VALUE!",
+    NOT_WEEKLY: "#VALUE!",
+    DUPLICATE_DATE: "#VALUE!",
+    UNSORTED_DATES: "#VALUE!",
+    LONG_GAP: "#VALUE!",
+    SHAPE: "#VALUE!",
+    BAD_OPTION: "#VALUE!",
+    NON_POSITIVE: "#NUM!",
+    TOO_FEW_POINTS: "#N/A",
+  };
+
+  it.each(Object.entries(expected))("maps InputError %s to %s with its sentence", (code, value) => {
+    const sentence = `Row 4 is the cause of ${code}.`;
+    const spec = excelErrorSpec(new InputError(code as InputErrorCode, sentence));
+    expect(spec).toEqual({ value, message: sentence });
+    const err = excelError(() => guarded(() => {
+      throw new InputError(code as InputErrorCode, sentence);
+    }));
+    expect(err.code).toBe(value);
+    // Excel shows custom messages with #VALUE! and #N/A only.
+    expect(err.message).toBe(value === "#NUM!" ? undefined : sentence);
+  });
+
+  it("covers every code with no extra entries", () => {
+    expect(Object.keys(INPUT_ERROR_VALUES).sort()).toEqual(Object.keys(expected).sort());
+  });
+
+  it("turns a BAD_OPTION into #NUM! only where asked", () => {
+    const bad = new InputError("BAD_OPTION", "The number of weeks ahead must be a whole number from 1 to 260; got 0.");
+    const e = thrown(() => asNumberProblem(() => {
+      throw bad;
+    }));
+    expect(e).toBeInstanceOf(ArgumentError);
+    expect(excelErrorSpec(e)).toEqual({ value: "#NUM!", message: bad.message });
+    const other = new InputError("NOT_A_NUMBER", "Row 2 holds \"x\", which is not a number.");
+    expect(thrown(() => asNumberProblem(() => {
+      throw other;
+    }))).toBe(other);
+  });
+
+  it("gives internal failures a plain sentence, never the internal text", () => {
+    const internal = new Error("singular matrix in kalman.ts:120");
+    const spec = excelErrorSpec(internal);
+    expect(spec.value).toBe("#VALUE!");
+    expect(spec.message).not.toContain("kalman");
+    expect(spec.message).toMatch(/^Fairlead could not compute/);
+    expect(excelErrorSpec(new RangeError("lambda out of range")).value).toBe("#NUM!");
+    expect(excelErrorSpec("a thrown string").value).toBe("#VALUE!");
+  });
+
+  it("passes a CustomFunctions.Error through unchanged", () => {
+    const own = new FakeError("#N/A", "already mapped");
+    expect(thrown(() => guarded(() => {
+      throw own;
+    }))).toBe(own);
+    expect(toCustomFunctionsError({ value: "#N/A", message: "m" })).toEqual(new FakeError("#N/A", "m"));
+  });
+});
+
+describe("OUTLOOK", () => {
+  // 2025-01-01 is Excel serial 45658 (1900 date system; =DATE(2025,1,1) in Excel, from
+  // memory), so the Fridays 2025-01-03 … 2025-01-31 are 45660 + 7k.
+  const FRIDAY_2025_01_03 = 45660;
+  const dates = [0, 1, 2, 3, 4].map((k) => [FRIDAY_2025_01_03 + 7 * k]);
+  const rates = [[100], [102], [101], [103], [104]];
+  // Naive (lastweek) by hand: point = last rate 104; one-step differences 2, −1, 2, 1 give
+  // σ² = (4 + 1 + 4 + 1) / 4 = 2.5 and Var_h = σ²·h. Standard normal quantiles
+  // z(0.90) = 1.2815515655446004 and z(0.975) = 1.959963984540054 (published tables).
+  const Z80 = 1.2815515655446004;
+  const Z95 = 1.959963984540054;
+  // 1e-9 absolute: the only differences allowed are floating-point rounding in the
+  // quantile routine and in sqrt, far below a cent on a rate near 100.
+  const TOL = 9;
+
+  it("returns week-ending serials, forecast and bounds per coverage level", () => {
+    const out = outlook([["Halden–Corvane"], ...rates], 3, "lastweek", OMITTED, [["Week ending"], ...dates]);
+    expect(out).toHaveLength(3);
+    out.forEach((row, s) => {
+      const h = s + 1;
+      const sd = Math.sqrt(2.5 * h);
+      expect(row).toHaveLength(6);
+      // Week ending: 2025-01-31 (45688) plus h weeks.
+      expect(row[0]).toBe(45688 + 7 * h);
+      expect(row[1]).toBeCloseTo(104, TOL);
+      expect(row[2]).toBeCloseTo(104 - Z80 * sd, TOL);
+      expect(row[3]).toBeCloseTo(104 + Z80 * sd, TOL);
+      expect(row[4]).toBeCloseTo(104 - Z95 * sd, TOL);
+      expect(row[5]).toBeCloseTo(104 + Z95 * sd, TOL);
+    });
+  });
+
+  it("numbers the weeks ahead when no dates are given, and takes one coverage level", () => {
+    const out = outlook(rates, 2, "lastweek", [[80]]);
+    expect(out.map((r) => r[0])).toEqual([1, 2]);
+    expect(out[1]).toHaveLength(4);
+    expect(out[1][2]).toBeCloseTo(104 - Z80 * Math.sqrt(5), TOL);
+  });
+
+  it("puts an #N/A error in a cell with no value, never NaN or a blank", () => {
+    const t = table("Outlook", ["Step", "Week ending", "Forecast", "Low 80%", "High 80%"], [
+      [1, "2025-02-07", 104, NaN, null],
+    ]);
+    const [row] = outlookRows(t);
+    expect(row[0]).toBe(45695); // 2025-02-07 = 45660 + 35
+    expect(row[1]).toBe(104);
+    expect(row).toHaveLength(4);
+    for (const c of row.slice(2)) {
+      expect(c).toBeInstanceOf(FakeError);
+      expect((c as FakeError).code).toBe("#N/A");
+    }
+  });
+
+  it("reads coverage from a number, a row or a column, skipping blanks", () => {
+    expect(readCoverage(80)).toEqual([80]);
+    expect(readCoverage([[80, 95]])).toEqual([80, 95]);
+    expect(readCoverage([[50], [""], [99]])).toEqual([50, 99]);
+    expect(readCoverage(null)).toBeUndefined();
+  });
+
+  it("chooses the core's default method when none is given (lastweek below two years)", () => {
+    const out = outlook(rates, 1, OMITTED, OMITTED, dates);
+    expect(out[0][1]).toBeCloseTo(104, TOL);
+  });
+
+  it("gives #VALUE! with the intake's sentence for text among the rates", () => {
+    const err = excelError(() => outlook([[100], ["n/a"], [101]], 2));
+    expect(err.code).toBe("#VALUE!");
+    expect(err.message).toMatch(/Row 2 holds "n\/a"/);
+  });
+
+  it.each([
+    ["weeks = 0", () => outlook(rates, 0)],
+    ["weeks = 2.5", () => outlook(rates, 2.5)],
+    ["coverage 120", () => outlook(rates, 2, "lastweek", [[120]])],
+    ["coverage 0", () => outlook(rates, 2, "lastweek", [[0]])],
+  ])("gives #NUM! for an impossible number (%s)", (_label, call) => {
+    expect(excelError(call).code).toBe("#NUM!");
+  });
+
+  it("gives #VALUE! for text coverage and for an unknown method", () => {
+    expect(excelError(() => outlook(rates, 2, "lastweek", [["high"]])).code).toBe("#VALUE!");
+    const err = excelError(() => outlook(rates, 2, "crystalball"));
+    expect(err.code).toBe("#VALUE!");
+    expect(err.message).toMatch(/"crystalball" is not available/);
+  });
+
+  it("gives #N/A for too little data", () => {
+    expect(excelError(() => outlook([[100], [101]], 2)).code).toBe("#N/A");
+    // The seasonal naive needs more than a year of weeks.
+    const err = excelError(() => outlook(rates, 2, "lastyear"));
+    expect(err.code).toBe("#N/A");
+    expect(err.message).toMatch(/needs at least \d+ weeks/);
+  });
+});

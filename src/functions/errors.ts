@@ -36,6 +36,8 @@ export const INPUT_ERROR_VALUES: Readonly<Record<InputErrorCode, ExcelErrorValue
   // out of range (see `asNumberProblem`).
   BAD_OPTION: "#VALUE!",
   NON_POSITIVE: "#NUM!",
+  // A constant column has no variation to test or model: a number problem, not a type one.
+  CONSTANT_SERIES: "#NUM!",
   TOO_FEW_POINTS: "#N/A",
 };
 

@@ -61,6 +61,7 @@ describe("error mapping", () => {
     SHAPE: "#VALUE!",
     BAD_OPTION: "#VALUE!",
     NON_POSITIVE: "#NUM!",
+    CONSTANT_SERIES: "#NUM!",
     TOO_FEW_POINTS: "#N/A",
   };
 

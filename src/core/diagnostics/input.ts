@@ -21,7 +21,7 @@ export function checkSeries(y: ArrayLike<number>, minLength: number, what: strin
     if (y[i] > hi) hi = y[i];
   }
   if (hi - lo <= 1e-12 * Math.max(1, Math.abs(hi))) {
-    throw new InputError("BAD_OPTION", `${what} cannot be run on a constant series: every week is ${y[0]}.`);
+    throw new InputError("CONSTANT_SERIES", `${what} cannot be run on a constant series: every week is ${y[0]}.`);
   }
   return Float64Array.from(y);
 }

@@ -13,6 +13,7 @@ export type InputErrorCode =
   | "LONG_GAP"
   | "TOO_FEW_POINTS"
   | "NON_POSITIVE"
+  | "CONSTANT_SERIES"
   | "SHAPE"
   | "BAD_OPTION";
 

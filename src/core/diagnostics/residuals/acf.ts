@@ -20,9 +20,7 @@ import { table } from "../../report";
 import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
 import { DEFAULT_LEVEL, levelText } from "../types";
-
-/** The integer seasonal lag of weekly data (DESIGN.md, Periods). */
-export const WEEKLY_PERIOD = 52;
+import { WEEKS_PER_YEAR } from "../../series/calendar";
 
 export interface CorrelogramOptions {
   /** Largest lag; default `defaultAcfLags(n, period)`. */
@@ -69,7 +67,7 @@ export function checkCount(value: number, lo: number, hi: number, what: string):
  * period is below 2), but no more than n/4, beyond which Box & Jenkins (1976, ch. 2) find
  * sample autocorrelations too unreliable to read; at least 1.
  */
-export function defaultAcfLags(n: number, period: number = WEEKLY_PERIOD): number {
+export function defaultAcfLags(n: number, period: number = WEEKS_PER_YEAR): number {
   const cycles = period >= 2 ? 2 * Math.round(period) : 20;
   return Math.max(1, Math.min(cycles, Math.floor(n / 4), n - 1));
 }
@@ -143,7 +141,7 @@ export function bartlettBand(r: Float64Array, n: number, z: number): Float64Arra
 }
 
 function resolveLags(n: number, options: CorrelogramOptions, what: string): number {
-  const period = options.period ?? WEEKLY_PERIOD;
+  const period = options.period ?? WEEKS_PER_YEAR;
   if (!(period >= 1) || !Number.isFinite(period)) {
     throw new InputError("BAD_OPTION", `The seasonal period must be a positive number of weeks; got ${period}.`);
   }

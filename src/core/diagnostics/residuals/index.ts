@@ -10,7 +10,8 @@ import type { ReportTable } from "../../report";
 import { InputError } from "../../series/errors";
 import type { TestResult } from "../types";
 import { DEFAULT_LEVEL, testTable } from "../types";
-import { WEEKLY_PERIOD, checkLevel, correlogram, correlogramTable } from "./acf";
+import { WEEKS_PER_YEAR } from "../../series/calendar";
+import { checkLevel, correlogram, correlogramTable } from "./acf";
 import type { Correlogram } from "./acf";
 import { jarqueBera } from "./jarqueBera";
 import { ljungBox } from "./ljungBox";
@@ -77,7 +78,7 @@ export function trimLeadingMissing(residuals: ArrayLike<number>): { values: Floa
 export function residualChecks(residuals: ArrayLike<number>, options: ResidualCheckOptions = {}): ResidualChecks {
   const { values, dropped } = trimLeadingMissing(residuals);
   const level = checkLevel(options.level ?? DEFAULT_LEVEL);
-  const period = options.period ?? WEEKLY_PERIOD;
+  const period = options.period ?? WEEKS_PER_YEAR;
   const fitDf = options.fitDf ?? 0;
   const lb = ljungBox(values, { lags: options.lags, fitDf, period, level });
   const jb = jarqueBera(values, { level });

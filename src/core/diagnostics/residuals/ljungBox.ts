@@ -22,7 +22,8 @@ import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
 import type { TestResult } from "../types";
 import { DEFAULT_LEVEL, levelText } from "../types";
-import { WEEKLY_PERIOD, acfOf, checkCount, checkLevel } from "./acf";
+import { WEEKS_PER_YEAR } from "../../series/calendar";
+import { acfOf, checkCount, checkLevel } from "./acf";
 
 export interface LjungBoxOptions {
   /** Number of autocorrelations m; default `defaultLjungBoxLags(n, period)`. */
@@ -47,7 +48,7 @@ export interface LjungBoxByLag {
 }
 
 /** min(2·period, ⌊n/5⌋) for a seasonal period ≥ 2, else min(10, ⌊n/5⌋) (see the header). */
-export function defaultLjungBoxLags(n: number, period: number = WEEKLY_PERIOD): number {
+export function defaultLjungBoxLags(n: number, period: number = WEEKS_PER_YEAR): number {
   const rule = period >= 2 ? 2 * Math.round(period) : 10;
   return Math.min(rule, Math.floor(n / 5));
 }
@@ -58,7 +59,7 @@ function resolve(y: ArrayLike<number>, options: LjungBoxOptions): { x: Float64Ar
   const x = checkSeries(y, 3, WHAT);
   const n = x.length;
   const fitDf = checkCount(options.fitDf ?? 0, 0, n, "number of fitted model parameters");
-  const period = options.period ?? WEEKLY_PERIOD;
+  const period = options.period ?? WEEKS_PER_YEAR;
   if (!(period >= 1) || !Number.isFinite(period)) {
     throw new InputError("BAD_OPTION", `The seasonal period must be a positive number of weeks; got ${period}.`);
   }

@@ -1,0 +1,76 @@
+/**
+ * McLeod & Li (1983), "Diagnostic checking ARMA time series models using squared-residual
+ * autocorrelations", J. Time Series Analysis 4, 269–273: the Ljung–Box portmanteau applied to
+ * the squared residuals of the linear AR(p) null. With â_t, t = 1..N (N = n − p), and
+ * σ̂² = Σâ_t²/N,
+ *   r_k = Σ_{t=k+1}^{N} (â_t² − σ̂²)(â_{t−k}² − σ̂²) / Σ_{t=1}^{N} (â_t² − σ̂²)²,
+ *   Q = N(N + 2) Σ_{k=1}^{L} r_k²/(N − k) ~ χ²(L),
+ * with no degrees of freedom subtracted for the AR fit: McLeod & Li show the squared-residual
+ * autocorrelations are asymptotically unaffected by estimating the ARMA parameters.
+ * Default L = min(20, ⌊N/4⌋): twenty weeks of memory in the size of moves, but never more
+ * than a quarter of the residuals.
+ */
+import { chi2Sf } from "../../math/distributions";
+import { InputError } from "../../series/errors";
+import type { TestResult } from "../types";
+import { ArOrderOptions, fitAr, nonlinearityVerdict, orderParameters, prepareSeries, PreparedSeries } from "./arOrder";
+
+export interface McLeodLiOptions extends ArOrderOptions {
+  /** Number of squared-residual autocorrelations L; default min(20, ⌊N/4⌋), N the residual count. */
+  lags?: number;
+}
+
+export function defaultMcLeodLiLags(residualCount: number): number {
+  return Math.max(1, Math.min(20, Math.floor(residualCount / 4)));
+}
+
+/** Q and its χ²(L) p-value for the squared values of the residuals a. */
+export function squaredAutocorrelationQ(a: Float64Array, L: number): { q: number; pValue: number; acf: Float64Array } {
+  const N = a.length;
+  let s2 = 0;
+  for (let t = 0; t < N; t++) s2 += a[t] * a[t];
+  s2 /= N;
+  const c = new Float64Array(N);
+  let c0 = 0;
+  for (let t = 0; t < N; t++) {
+    c[t] = a[t] * a[t] - s2;
+    c0 += c[t] * c[t];
+  }
+  const acf = new Float64Array(L);
+  let q = 0;
+  for (let k = 1; k <= L; k++) {
+    let s = 0;
+    for (let t = k; t < N; t++) s += c[t] * c[t - k];
+    acf[k - 1] = s / c0;
+    q += (acf[k - 1] * acf[k - 1]) / (N - k);
+  }
+  q *= N * (N + 2);
+  return { q, pValue: chi2Sf(q, L), acf };
+}
+
+export function mcleodLiPrepared(prep: PreparedSeries, options: Pick<McLeodLiOptions, "lags"> = {}): TestResult {
+  const p = prep.order;
+  const { fit } = fitAr(prep, p);
+  const N = fit.n;
+  const L = options.lags ?? defaultMcLeodLiLags(N);
+  if (!Number.isInteger(L) || L < 1 || L > Math.floor(N / 2)) {
+    throw new InputError("BAD_OPTION", `The McLeod–Li lags must be a whole number from 1 to ${Math.floor(N / 2)} for this series; got ${L}.`);
+  }
+  const { q, pValue } = squaredAutocorrelationQ(fit.residuals, L);
+  return {
+    test: "McLeod–Li",
+    nullHypothesis: "the squared AR residuals are uncorrelated (no clustering in the size of moves)",
+    statistic: q,
+    pValue,
+    lags: L,
+    parameters: { ...orderParameters(prep, p), "chi-squared df": L, observations: N },
+    level: prep.level,
+    rejected: pValue < prep.level,
+    verdict: nonlinearityVerdict("McLeod–Li Q", q, pValue, prep.level, ": large and small moves come in clusters"),
+  };
+}
+
+/** McLeod & Li (1983) portmanteau test on the squared AR residuals. */
+export function mcleodLi(y: ArrayLike<number>, options: McLeodLiOptions = {}): TestResult {
+  return mcleodLiPrepared(prepareSeries(y, options, "The McLeod–Li test"), options);
+}

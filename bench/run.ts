@@ -11,6 +11,11 @@ import { bfgs, nelderMead } from "../src/core/math/optimise";
 import { drift, lastYear } from "../src/core/models/naive";
 import { readWeekly } from "../src/core/series/intake";
 import { analyse } from "../src/core/analysis";
+import { runChecks } from "../src/core/diagnostics/battery";
+import { unitRootSummary } from "../src/core/diagnostics/unitroot";
+import { seasonalitySummary, stl } from "../src/core/diagnostics/seasonality";
+import { nonlinearitySummary } from "../src/core/diagnostics/nonlinearity";
+import { residualChecks } from "../src/core/diagnostics/residuals";
 
 const WEEKS = 730;
 
@@ -97,11 +102,37 @@ runCase({ name: "models.lastyear fit+forecast 12 weeks", n: WEEKS, setup: () => 
 runCase({ name: "models.drift simulate 12 weeks x 5000 paths", n: 5000, setup: () => () => drift.fit(y).simulate(12, 5000, new MersenneTwister(3)) });
 
 runCase({
-  name: "analyse (intake to report tables, lastyear)",
+  name: "analyse (intake to outlook, lastyear, no checks)",
   n: WEEKS,
   setup: () => {
     const values = Array.from(y, (v) => [v]);
     const dates = Array.from(y, (_v, t) => [41279 + 7 * t]);
-    return () => analyse(readWeekly(values, { dates }), { method: "lastyear", horizon: 12 });
+    return () => analyse(readWeekly(values, { dates }), { method: "lastyear", horizon: 12, checks: false });
   },
 });
+
+// The diagnostic battery on 470 weekly points (about nine years), the target size:
+// stationarity on levels/logs/changes, STL strength and ISO-week factors, nonlinearity,
+// residual checks of the seasonal naive.
+{
+  const n = 470;
+  const z = syntheticRates(n, 4);
+  const start = Date.UTC(2017, 0, 6);
+  const series = {
+    dates: Array.from({ length: n }, (_v, t) => new Date(start + t * 7 * 86_400_000)),
+    values: z,
+    filled: new Array<boolean>(n).fill(false),
+    warnings: [],
+  };
+  const fit = lastYear.fit(z);
+  runCase({
+    name: "diagnostics.runChecks (all sections)",
+    n,
+    setup: () => () => runChecks(series, { residuals: fit.residuals, armaDf: 0, label: "lastyear" }),
+  });
+  runCase({ name: "diagnostics.unitRootSummary", n, setup: () => () => unitRootSummary(z) });
+  runCase({ name: "diagnostics.seasonalitySummary", n, setup: () => () => seasonalitySummary(series) });
+  runCase({ name: "diagnostics.stl (period 52)", n, setup: () => () => stl(Float64Array.from(z, Math.log), { period: 52 }) });
+  runCase({ name: "diagnostics.nonlinearitySummary", n, setup: () => () => nonlinearitySummary(z) });
+  runCase({ name: "diagnostics.residualChecks", n, setup: () => () => residualChecks(fit.residuals) });
+}

@@ -11,6 +11,8 @@ import { WEEKDAY_NAMES } from "./series/wording";
 import { getModel } from "./models/registry";
 import type { Cell, ReportTable } from "./report";
 import { table } from "./report";
+import type { CheckTables } from "./diagnostics/battery";
+import { runChecks } from "./diagnostics/battery";
 
 export interface AnalysisOptions {
   /** Method code (DESIGN.md); default "lastyear" when two years of history exist, else "lastweek". */
@@ -19,10 +21,12 @@ export interface AnalysisOptions {
   horizon?: number;
   /** Central interval coverage levels in percent; default [80, 95]. */
   levels?: number[];
+  /** Run the diagnostic checks (stationarity, seasonality, nonlinearity, residuals); default true. */
+  checks?: boolean;
 }
 
 export interface Report {
-  tables: { data: ReportTable; outlook: ReportTable; fit: ReportTable };
+  tables: { data: ReportTable; outlook: ReportTable; fit: ReportTable } & CheckTables;
   /** Intake warnings followed by the model's notes. */
   warnings: string[];
   /** The last week of data as YYYY-MM-DD, or null for an undated series. */
@@ -48,7 +52,7 @@ export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = 
     }
   }
   const method = options.method ?? (series.values.length >= 104 ? "lastyear" : "lastweek");
-  return { method, horizon, levels: [...levels] };
+  return { method, horizon, levels: [...levels], checks: options.checks ?? true };
 }
 
 function levelLabel(l: number): string {
@@ -103,9 +107,13 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Re
   fitRows.push(["AICc", Number.isFinite(fitted.aicc) ? fitted.aicc : null, null]);
   const fit = table(`Fit: ${model.label}`, ["Parameter", "Value", "Std. error"], fitRows, summary.notes);
 
+  const checks = opts.checks
+    ? runChecks(series, { residuals: fitted.residuals, armaDf: summary.armaDf, label: model.label })
+    : { tables: {}, skipped: [] };
+
   return {
-    tables: { data: describeData(series), outlook, fit },
-    warnings: [...series.warnings, ...summary.notes],
+    tables: { data: describeData(series), outlook, fit, ...checks.tables },
+    warnings: [...series.warnings, ...summary.notes, ...checks.skipped],
     lastWeek: last ? isoDate(last) : null,
     options: opts,
   };

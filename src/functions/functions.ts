@@ -121,7 +121,8 @@ export function outlook(
     // Weeks ahead and coverage can only fail as numbers out of range: #NUM!.
     asNumberProblem(() => resolveOptions(series, { horizon, levels }));
     // What analyse refuses now is the method (or the data for that method).
-    const report = analyse(series, { method: readMethod(method), horizon, levels });
+    // The outlook needs no diagnostics; skipping them keeps recalculation light.
+    const report = analyse(series, { method: readMethod(method), horizon, levels, checks: false });
     return outlookRows(report.tables.outlook);
   });
 }

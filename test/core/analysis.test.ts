@@ -42,7 +42,7 @@ describe("analyse()", () => {
 
   test("defaults: seasonal naive with two years of history, 12 weeks, 80 and 95", () => {
     const r = analyse(series);
-    expect(r.options).toEqual({ method: "lastyear", horizon: 12, levels: [80, 95] });
+    expect(r.options).toEqual({ method: "lastyear", horizon: 12, levels: [80, 95], checks: true });
     expect(r.tables.outlook.rows).toHaveLength(12);
   });
 
@@ -63,5 +63,54 @@ describe("analyse()", () => {
     expectCode(() => analyse(series, { method: "crystal" }), "BAD_OPTION", /not available/);
     const short = readWeekly(laneBlock(30).values, { dates: laneBlock(30).dates });
     expectCode(() => analyse(short, { method: "lastyear" }), "TOO_FEW_POINTS", /at least 54 weeks/);
+  });
+});
+
+describe("analyse() with the checks", () => {
+  // Simulated truth (seeded): log rates follow a random walk plus a fixed annual pattern of
+  // ±10%, 470 weekly points — I(1) in logs with strong seasonality by construction.
+  const { MersenneTwister } = jest.requireActual("../../src/core/math/rng") as typeof import("../../src/core/math/rng");
+  const rng = new MersenneTwister(2026);
+  const n = 470;
+  const values: unknown[][] = [];
+  const dates: unknown[][] = [];
+  let walk = Math.log(1500);
+  const start = Date.UTC(2017, 0, 6);
+  for (let t = 0; t < n; t++) {
+    walk += 0.01 * rng.normal();
+    const day = new Date(start + t * 7 * 86_400_000);
+    const season = 0.1 * Math.sin((2 * Math.PI * t) / (365.25 / 7));
+    values.push([Math.exp(walk + season + 0.005 * rng.normal())]);
+    dates.push([day.toISOString().slice(0, 10)]);
+  }
+  const series = readWeekly(values, { dates });
+  const r = analyse(series, { method: "lastyear", horizon: 4 });
+
+  test("every check section is present", () => {
+    for (const k of ["stationarity", "integration", "seasonStrength", "weekFactors", "nonlinearity", "residualTests", "correlogram"] as const) {
+      expect(r.tables[k]).toBeDefined();
+    }
+    expect(r.warnings.filter((w) => /not run/.test(w))).toEqual([]);
+  });
+
+  test("the conclusions match the simulated truth", () => {
+    expect(r.tables.integration?.rows[0].join(" ")).toMatch(/1/);
+    expect(r.tables.weekFactors?.rows).toHaveLength(52);
+    const strength = r.tables.seasonStrength?.rows.map((row) => row.join(" ")).join(" ") ?? "";
+    expect(strength).toMatch(/[Ss]trong/);
+  });
+
+  test("a series too short for the checks still gets its outlook, with sentences saying what was skipped", () => {
+    const short = readWeekly(values.slice(0, 20), { dates: dates.slice(0, 20) });
+    const s = analyse(short, { method: "lastweek", horizon: 2 });
+    expect(s.tables.outlook.rows).toHaveLength(2);
+    const skipped = s.warnings.filter((w) => /not run/.test(w));
+    expect(skipped.length).toBeGreaterThanOrEqual(2);
+    expect(skipped.every((w) => /weeks/.test(w))).toBe(true);
+  });
+
+  test("checks can be switched off", () => {
+    const off = analyse(series, { method: "lastyear", horizon: 4, checks: false });
+    expect(off.tables.stationarity).toBeUndefined();
   });
 });

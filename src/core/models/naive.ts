@@ -143,7 +143,7 @@ class BaselineFit implements Fitted {
     if (this.kind === "drift") {
       parameters.unshift({ name: "drift per week", value: this.p.drift, se: Math.sqrt(this.p.sigma2 / this.p.m) });
     }
-    return { method: this.kind, structure: words[this.kind], parameters, notes: [] };
+    return { method: this.kind, structure: words[this.kind], parameters, armaDf: 0, notes: [] };
   }
 }
 

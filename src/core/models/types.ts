@@ -30,6 +30,8 @@ export interface FitSummary {
   /** The chosen structure in words, e.g. "seasonal naive, lag 52". */
   structure: string;
   parameters: ParameterRow[];
+  /** ARMA coefficients estimated, which residual portmanteau tests subtract (0 for the baselines). */
+  armaDf: number;
   /** Plain sentences: fallbacks taken, assumptions made. */
   notes: string[];
 }

@@ -21,6 +21,7 @@ import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
 import { DEFAULT_LEVEL, levelText, type TestResult } from "../types";
 import { caseLabel, mackinnonCritical, mackinnonP, type UnitRootCase } from "./mackinnon";
+import { capitalise } from "../../series/wording";
 
 export type LagRule = "aic" | "bic" | "tstat";
 
@@ -106,10 +107,6 @@ function fit(X: Matrix, dep: Float64Array, what: string): OlsResult {
       `${what} cannot be run: the series moves in an exact pattern (for example a straight line), so there is nothing random to test.`,
     );
   }
-}
-
-function capitalise(s: string): string {
-  return s.length ? s[0].toUpperCase() + s.slice(1) : s;
 }
 
 /** ADF verdict sentence at `level`. */

@@ -18,6 +18,7 @@ import { checkSeries } from "../input";
 import { DEFAULT_LEVEL, levelText, type TestResult } from "../types";
 import { bartlettLongRunVariance } from "./pp";
 import { schwertLag } from "./adf";
+import { capitalise } from "../../series/wording";
 
 export type KpssCase = "c" | "ct";
 
@@ -54,10 +55,6 @@ export function kpssPValue(stat: number, regression: KpssCase): { p: number; bou
     }
   }
   return { p: p[p.length - 1] };
-}
-
-function capitalise(s: string): string {
-  return s.length ? s[0].toUpperCase() + s.slice(1) : s;
 }
 
 export function kpss(y: ArrayLike<number>, options: KpssOptions = {}): KpssResult {

@@ -29,6 +29,7 @@ import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
 import { DEFAULT_LEVEL, levelText, type TestResult } from "../types";
 import { caseLabel, mackinnonCritical, mackinnonP, type UnitRootCase } from "./mackinnon";
+import { capitalise } from "../../series/wording";
 
 export interface PpOptions {
   /** Deterministic terms. Default "c". */
@@ -72,10 +73,6 @@ export function bartlettLongRunVariance(u: Float64Array, q: number): { gamma0: n
     lrv += (2 * (1 - j / (q + 1)) * g) / T;
   }
   return { gamma0: g0, lrv };
-}
-
-function capitalise(s: string): string {
-  return s.length ? s[0].toUpperCase() + s.slice(1) : s;
 }
 
 export function pp(y: ArrayLike<number>, options: PpOptions = {}): PpResult {

@@ -36,19 +36,31 @@ export interface ModelResiduals {
   label: string;
 }
 
-/** Runs `fn`; an InputError becomes a skip sentence, anything else propagates. */
+/**
+ * Runs `fn`; an InputError becomes a skip sentence. Any other failure (an optimiser or a
+ * special function giving up on odd data) is an internal one: it is reported as a plain
+ * sentence too, so that one check cannot take the outlook and the other checks with it.
+ */
 function attempt(what: string, skipped: string[], fn: () => void): void {
   try {
     fn();
   } catch (e) {
-    if (!isInputError(e)) throw e;
-    skipped.push(`${what} not run: ${e.message}`);
+    skipped.push(
+      isInputError(e)
+        ? `${what} not run: ${e.message}`
+        : `${what} not run: they could not be computed for these rates (an internal step failed); the other results are unaffected.`,
+    );
   }
 }
 
-function weeklyChange(y: Float64Array, logs: boolean): Float64Array {
-  const d = new Float64Array(y.length - 1);
-  for (let t = 1; t < y.length; t++) d[t - 1] = logs ? Math.log(y[t]) - Math.log(y[t - 1]) : y[t] - y[t - 1];
+/** The series differenced `times` times, of log rates when `logs`. */
+function differenced(y: Float64Array, logs: boolean, times: number): Float64Array {
+  let d: Float64Array = logs ? Float64Array.from(y, Math.log) : Float64Array.from(y);
+  for (let k = 0; k < times; k++) {
+    const next = new Float64Array(d.length - 1);
+    for (let t = 1; t < d.length; t++) next[t - 1] = d[t] - d[t - 1];
+    d = next;
+  }
   return d;
 }
 
@@ -73,12 +85,16 @@ export function runChecks(series: WeeklySeries, model?: ModelResiduals): ChecksR
   });
 
   attempt("Nonlinearity checks", skipped, () => {
-    const stationary = order === 0 ? y : weeklyChange(y, usedLogs);
+    // The tests assume a stationary series: difference as often as the stationarity checks say.
+    const stationary = order === 0 ? y : differenced(y, usedLogs, order);
     const t = nonlinearitySummary(stationary);
+    const scale = usedLogs ? "log rates" : "rates";
     t.notes.unshift(
       order === 0
         ? "Run on the rates themselves, which the stationarity checks find stationary."
-        : `Run on the weekly change of ${usedLogs ? "log rates" : "rates"}, since the rates themselves wander.`,
+        : order === 1
+          ? `Run on the weekly change of ${scale}, since the rates themselves wander.`
+          : `Run on the change of the weekly change of ${scale}, since the stationarity checks find even the weekly changes wandering.`,
     );
     tables.nonlinearity = t;
   });

@@ -94,7 +94,11 @@ describe("analyse() with the checks", () => {
   });
 
   test("the conclusions match the simulated truth", () => {
-    expect(r.tables.integration?.rows[0].join(" ")).toMatch(/1/);
+    // I(1), concluded on the seasonally adjusted rates (the ±10% annual cycle is real here).
+    const [judged, order, evidence] = r.tables.integration?.rows[0] ?? [];
+    expect(order).toBe(1);
+    expect(evidence).toMatch(/^conclusive/);
+    expect(judged).toMatch(/seasonally adjusted/);
     expect(r.tables.weekFactors?.rows).toHaveLength(52);
     const strength = r.tables.seasonStrength?.rows.map((row) => row.join(" ")).join(" ") ?? "";
     expect(strength).toMatch(/[Ss]trong/);

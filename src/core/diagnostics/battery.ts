@@ -10,7 +10,7 @@ import { isInputError } from "../series/errors";
 import type { WeeklySeries } from "../series/types";
 import { nonlinearitySummary } from "./nonlinearity";
 import { residualChecks } from "./residuals";
-import { seasonalitySummary } from "./seasonality";
+import { seasonalityAnalysis } from "./seasonality";
 import { unitRootSummary } from "./unitroot/integration";
 
 export interface CheckTables {
@@ -71,27 +71,34 @@ export function runChecks(series: WeeklySeries, model?: ModelResiduals): ChecksR
   let order: 0 | 1 | 2 = 1;
   let usedLogs = y.every((v) => v > 0);
 
+  // Seasonality first: when the annual pattern is real, the stationarity and nonlinearity
+  // checks run on the seasonally adjusted rates, because their regressions carry no seasonal
+  // terms and a smooth annual cycle makes a stationary series look like a random walk.
+  let adjusted: Float64Array | null = null;
+  attempt("Seasonality checks", skipped, () => {
+    const s = seasonalityAnalysis(series);
+    [tables.seasonStrength, tables.weekFactors] = s.tables;
+    if (s.seasonalReal) adjusted = s.adjusted;
+  });
+  const tested: Float64Array = adjusted ?? y;
+  const adjustNote =
+    "Run on seasonally adjusted rates (the STL annual pattern removed), because the tests' regressions have no seasonal terms.";
+
   attempt("Stationarity checks", skipped, () => {
-    const u = unitRootSummary(y);
+    const u = unitRootSummary(y, adjusted ? { adjusted: { values: adjusted, note: adjustNote } } : {});
     [tables.stationarity, tables.integration] = u.tables;
     order = u.order;
     usedLogs = u.usedLogs;
   });
 
-  attempt("Seasonality checks", skipped, () => {
-    const [strength, factors] = seasonalitySummary(series);
-    tables.seasonStrength = strength;
-    if (factors) tables.weekFactors = factors;
-  });
-
   attempt("Nonlinearity checks", skipped, () => {
     // The tests assume a stationary series: difference as often as the stationarity checks say.
-    const stationary = order === 0 ? y : differenced(y, usedLogs, order);
+    const stationary = order === 0 ? tested : differenced(tested, usedLogs, order);
     const t = nonlinearitySummary(stationary);
-    const scale = usedLogs ? "log rates" : "rates";
+    const scale = `${adjusted ? "seasonally adjusted " : ""}${usedLogs ? "log rates" : "rates"}`;
     t.notes.unshift(
       order === 0
-        ? "Run on the rates themselves, which the stationarity checks find stationary."
+        ? `Run on the ${scale} themselves, which the stationarity checks find stationary.`
         : order === 1
           ? `Run on the weekly change of ${scale}, since the rates themselves wander.`
           : `Run on the change of the weekly change of ${scale}, since the stationarity checks find even the weekly changes wandering.`,

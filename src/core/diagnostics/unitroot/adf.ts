@@ -6,7 +6,9 @@
  *
  * and τ = γ̂ / se(γ̂) is compared with the Dickey–Fuller distribution: p-value from the
  * MacKinnon (1994) response surface (asymptotic), critical values from MacKinnon (2010) at
- * the regression's sample size.
+ * the regression's sample size. At 1%, 5% or 10% the verdict compares τ with that
+ * finite-sample critical value, so it always agrees with the value the report prints; at any
+ * other level the asymptotic p-value decides (see unitRootVerdict in mackinnon.ts).
  *
  * Lag choice. With a lag rule, every candidate p = 0 … maxLag is fitted on the same sample —
  * the last n − 1 − maxLag differences — so that the information criteria compare like with
@@ -20,7 +22,7 @@ import { normalQuantile } from "../../math/distributions";
 import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
 import { DEFAULT_LEVEL, levelText, type TestResult } from "../types";
-import { caseLabel, mackinnonCritical, mackinnonP, type UnitRootCase } from "./mackinnon";
+import { caseLabel, mackinnonCritical, mackinnonP, unitRootVerdict, type UnitRootCase } from "./mackinnon";
 import { capitalise } from "../../series/wording";
 
 export type LagRule = "aic" | "bic" | "tstat";
@@ -190,8 +192,9 @@ export function adf(y: ArrayLike<number>, options: AdfOptions = {}): AdfResult {
   const statistic = r.tStat[levelCol];
   const pValue = mackinnonP(statistic, regression);
   const criticalValues = mackinnonCritical(regression, rows);
-  const rejected = pValue < level;
+  const { rejected, decidedBy } = unitRootVerdict(statistic, pValue, criticalValues, level);
   parameters.observations = rows;
+  parameters["verdict by"] = decidedBy;
   parameters["γ (coefficient on lagged level)"] = r.coef[levelCol];
 
   return {

@@ -113,6 +113,40 @@ export function mackinnonCritical(regression: UnitRootCase, nobs: number = Infin
   return { "1%": at(rows["1%"]), "5%": at(rows["5%"]), "10%": at(rows["10%"]) };
 }
 
+const TABLE_LEVELS: readonly { key: "1%" | "5%" | "10%"; level: number }[] = [
+  { key: "1%", level: 0.01 },
+  { key: "5%", level: 0.05 },
+  { key: "10%", level: 0.1 },
+];
+
+/**
+ * The MacKinnon (2010) table key ("1%", "5%", "10%") for a verdict level, or null when the
+ * level is not one the response surfaces tabulate.
+ */
+export function tabulatedLevel(level: number): "1%" | "5%" | "10%" | null {
+  for (const l of TABLE_LEVELS) if (Math.abs(level - l.level) < 1e-12) return l.key;
+  return null;
+}
+
+/**
+ * Verdict of a lower-tail Dickey–Fuller-type test. At a tabulated level (1%, 5%, 10%) the
+ * statistic is compared with the finite-sample critical value — the one the report prints —
+ * because the MacKinnon (1994) p-value is asymptotic and, in short series, sits below the
+ * level for statistics the finite-sample value does not reject (MacKinnon 2010, Table 2
+ * moves the 5% "ct" value from −3.41 at T = ∞ to −3.67 at T = 19). Other levels have no
+ * finite-sample value, so the asymptotic p-value decides.
+ */
+export function unitRootVerdict(
+  statistic: number,
+  pValue: number,
+  critical: Record<"1%" | "5%" | "10%", number>,
+  level: number,
+): { rejected: boolean; decidedBy: string } {
+  const key = tabulatedLevel(level);
+  if (key !== null) return { rejected: statistic < critical[key], decidedBy: `${key} critical value at this length` };
+  return { rejected: pValue < level, decidedBy: "asymptotic p-value" };
+}
+
 /** Words for a case, used in test names: "no constant", "constant", "constant + trend". */
 export function caseLabel(regression: UnitRootCase): string {
   return regression === "n" ? "no constant" : regression === "c" ? "constant" : "constant + trend";

@@ -20,7 +20,8 @@
  * overrides it.
  *
  * Z(t) has the asymptotic distribution of the Dickey–Fuller τ for the same case, so its
- * p-value and critical values come from mackinnon.ts. Z(α) has critical values only (the
+ * p-value and critical values come from mackinnon.ts, and its verdict is decided as ADF's: by
+ * the finite-sample critical value at 1%, 5% or 10%, by the asymptotic p-value otherwise. Z(α) has critical values only (the
  * Dickey–Fuller n(ρ̂−1) tables) and is reported in `parameters`.
  */
 import { Matrix } from "ml-matrix";
@@ -28,7 +29,7 @@ import { ols, type OlsResult } from "../../math/ols";
 import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
 import { DEFAULT_LEVEL, levelText, type TestResult } from "../types";
-import { caseLabel, mackinnonCritical, mackinnonP, type UnitRootCase } from "./mackinnon";
+import { caseLabel, mackinnonCritical, mackinnonP, unitRootVerdict, type UnitRootCase } from "./mackinnon";
 import { capitalise } from "../../series/wording";
 
 export interface PpOptions {
@@ -130,7 +131,8 @@ export function pp(y: ArrayLike<number>, options: PpOptions = {}): PpResult {
   const zTau = Math.sqrt(gamma0 / lrv) * tRho - (0.5 * (lrv - gamma0) * (T * se)) / (lambda * s);
 
   const pValue = mackinnonP(zTau, regression);
-  const rejected = pValue < level;
+  const criticalValues = mackinnonCritical(regression, T);
+  const { rejected, decidedBy } = unitRootVerdict(zTau, pValue, criticalValues, level);
   const lv = levelText(level);
   const verdict = rejected
     ? `${capitalise(subject)} ${regression === "ct" ? "returns to a trend line" : regression === "c" ? "returns to a fixed mean" : "returns to zero"}: a unit root is rejected at ${lv}.`
@@ -148,8 +150,9 @@ export function pp(y: ArrayLike<number>, options: PpOptions = {}): PpResult {
       "deterministic terms": caseLabel(regression),
       observations: T,
       rho,
+      "verdict by": decidedBy,
     },
-    criticalValues: { ...mackinnonCritical(regression, T) },
+    criticalValues: { ...criticalValues },
     level,
     rejected,
     verdict,

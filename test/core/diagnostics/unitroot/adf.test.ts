@@ -60,9 +60,10 @@ describe("ADF vs statsmodels adfuller", () => {
     expect(r.parameters["max lag"]).toBe(12);
   });
 
-  it("the verdict is a sentence at 5% matching the p-value", () => {
+  it("the verdict is a sentence at 5% matching the printed 5% critical value", () => {
     const r = adf(series.lgdp, { regression: "ct", subject: "the log rate" });
-    expect(r.rejected).toBe((r.pValue ?? 1) < 0.05);
+    expect(r.rejected).toBe(r.statistic < (r.criticalValues?.["5%"] ?? NaN));
+    expect(r.parameters["verdict by"]).toBe("5% critical value at this length");
     expect(r.verdict).toMatch(/^The log rate (behaves like a random walk|returns to a trend line)/);
     expect(r.verdict).toContain("5%");
   });
@@ -102,5 +103,54 @@ describe("ADF on simulated series with known truth (seeded MT19937)", () => {
     // With n = 200 and φ = 0.5, γ = −0.5 is about 8 standard errors from 0; power is ≈ 1.
     // At least 190 of 200 (95%) allows for AIC picking extra lags in a few samples.
     expect(rejections(0.5, 20260102)).toBeGreaterThanOrEqual(190);
+  });
+});
+
+describe("ADF verdicts in short series follow the finite-sample critical value", () => {
+  /** A seeded Gaussian random walk of n weeks (a true unit root). */
+  function walk(seed: number, n: number): Float64Array {
+    const rng = new MersenneTwister(seed);
+    const y = new Float64Array(n);
+    let x = 0;
+    for (let t = 0; t < n; t++) {
+      x += rng.normal();
+      y[t] = 100 + x;
+    }
+    return y;
+  }
+
+  it("worked case, n = 20 with a trend: τ between the asymptotic and finite-sample 5% values is not a rejection", () => {
+    // Seed 46 was found by scanning seeds for a τ in the gap. At T = 19 the MacKinnon (2010)
+    // 5% "ct" value is −3.41049 − 4.3904/19 − 9.036/19² − 45.374/19³ = −3.6732, while the
+    // MacKinnon (1994) asymptotic p-value of τ = −3.514 is 0.038: the old verdict ("rejected",
+    // from p < 0.05) contradicted the critical value printed in the same row.
+    const r = adf(walk(46, 20), { regression: "ct", lags: 0 });
+    expect(r.nobs).toBe(19);
+    expect(r.statistic).toBeCloseTo(-3.514, 3);
+    expect(r.pValue).toBeGreaterThan(0.03);
+    expect(r.pValue).toBeLessThan(0.05);
+    expect(r.criticalValues?.["5%"]).toBeCloseTo(-3.6732, 4);
+    expect(r.rejected).toBe(false);
+    expect(r.verdict).toMatch(/behaves like a random walk/);
+  });
+
+  it("at a level with no tabulated critical value (2.5%) the asymptotic p-value decides", () => {
+    const r = adf(walk(46, 20), { regression: "ct", lags: 0, level: 0.025 });
+    expect(r.rejected).toBe((r.pValue ?? 1) < 0.025);
+    expect(r.parameters["verdict by"]).toBe("asymptotic p-value");
+  });
+
+  it("size at n = 20 (trend, no lags) is near 5%, and every verdict agrees with the printed value", () => {
+    // 2000 random walks. By the asymptotic p-value this rejected 166 (8.3%): the asymptotic
+    // distribution is too narrow for T = 19. The finite-sample value is built for that T, so
+    // the count should be ~Binomial(2000, 0.05): mean 100, sd 9.7; 129 is mean + 3 sd.
+    let rejected = 0;
+    for (let s = 0; s < 2000; s++) {
+      const r = adf(walk(5000 + s, 20), { regression: "ct", lags: 0 });
+      expect(r.rejected).toBe(r.statistic < (r.criticalValues?.["5%"] ?? NaN));
+      if (r.rejected) rejected++;
+    }
+    expect(rejected).toBeLessThanOrEqual(129);
+    expect(rejected).toBeGreaterThanOrEqual(71);
   });
 });

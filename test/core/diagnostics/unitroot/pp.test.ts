@@ -1,5 +1,6 @@
 import { pp, ppBandwidth } from "../../../../src/core/diagnostics/unitroot/pp";
 import type { UnitRootCase } from "../../../../src/core/diagnostics/unitroot/mackinnon";
+import { MersenneTwister } from "../../../../src/core/math/rng";
 import { loadFixture } from "../../../fixtures";
 
 interface PpCase {
@@ -58,5 +59,46 @@ describe("Phillips–Perron vs the assembled reference", () => {
     const c = cases.find((k) => k.dataset === "sunspots" && k.regression === "ct" && k.lags === 0);
     const r = pp(series.sunspots, { regression: "ct", lags: 0 });
     expect(rel(r.statistic, c?.t_rho ?? NaN)).toBeLessThan(1e-10);
+  });
+});
+
+describe("Phillips–Perron verdicts in short series follow the finite-sample critical value", () => {
+  /** A seeded Gaussian random walk of n weeks (a true unit root). */
+  function walk(seed: number, n: number): Float64Array {
+    const rng = new MersenneTwister(seed);
+    const y = new Float64Array(n);
+    let x = 0;
+    for (let t = 0; t < n; t++) {
+      x += rng.normal();
+      y[t] = 100 + x;
+    }
+    return y;
+  }
+
+  it("worked case, n = 20 with a trend: Z(t) between the asymptotic and finite-sample 5% values is not a rejection", () => {
+    // Seed 46 (found by scanning): Z(t) = −3.543 has asymptotic p = 0.035 (MacKinnon 1994),
+    // but the MacKinnon (2010) 5% value at T = 19 is −3.6732, the one the row prints.
+    const r = pp(walk(46, 20), { regression: "ct" });
+    expect(r.nobs).toBe(19);
+    expect(r.statistic).toBeCloseTo(-3.543, 3);
+    expect(r.pValue).toBeLessThan(0.05);
+    expect(r.criticalValues?.["5%"]).toBeCloseTo(-3.6732, 4);
+    expect(r.rejected).toBe(false);
+    expect(r.verdict).toMatch(/behaves like a random walk/);
+    expect(r.parameters["verdict by"]).toBe("5% critical value at this length");
+  });
+
+  it("size at n = 20 (trend) is near 5%, and every verdict agrees with the printed value", () => {
+    // 2000 random walks; by the asymptotic p-value 174 (8.7%) were rejected. Z(t) shares τ's
+    // distribution only asymptotically, so a little excess remains (~6% here); the bound is
+    // mean + 3 sd of Binomial(2000, 0.05), 129.
+    let rejected = 0;
+    for (let s = 0; s < 2000; s++) {
+      const r = pp(walk(5000 + s, 20), { regression: "ct" });
+      expect(r.rejected).toBe(r.statistic < (r.criticalValues?.["5%"] ?? NaN));
+      if (r.rejected) rejected++;
+    }
+    expect(rejected).toBeLessThanOrEqual(129);
+    expect(rejected).toBeGreaterThanOrEqual(71);
   });
 });

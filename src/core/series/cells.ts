@@ -2,7 +2,7 @@
  * One rate cell, as it reaches our code from Office.js (Range.values, custom-function
  * arguments) or from the batch reader, turned into a number, a blank (null) or an
  * InputError. The accepted text forms are what desks paste from e-mails and web pages:
- * thousands separators, one currency sign or ISO 4217-style code before or after the
+ * thousands separators, one currency sign or code (CURRENCY_CODES) before or after the
  * number, surrounding spaces. A percentage is a change, not a rate, and is refused.
  */
 import { CellOffset, InputError } from "./errors";
@@ -93,11 +93,25 @@ export function isBlankCell(value: unknown): boolean {
   return value === null || value === undefined || (typeof value === "string" && value.trim() === "");
 }
 
-// One currency marker: a symbol, a three-letter code (ISO 4217 shape: USD, EUR, CNY) or a
-// dollar with a country prefix (US$, HK$, S$).
-const CURRENCY = "(?:[A-Z]{3}|[A-Z]{0,2}\\$|[€£¥￥₩₹₽₺₫₱₪฿])";
+/**
+ * The currency codes read beside a number: the ISO 4217 codes freight desks meet in rate
+ * sheets, plus RMB, which is not an ISO code (the renminbi's ISO code is CNY) but is common
+ * in the trade. A fixed list and not "any three capitals", so that an index or lane name
+ * such as "FBX11" or "WCI 40" in a header is text, not the rate 11 or 40.
+ */
+export const CURRENCY_CODES: readonly string[] = [
+  "USD", "EUR", "CNY", "RMB", "GBP", "JPY", "HKD", "SGD", "KRW", "INR",
+  "AUD", "CAD", "CHF", "DKK", "NOK", "SEK", "AED", "BRL", "MXN", "ZAR",
+  "TWD", "THB", "MYR", "IDR", "VND", "PHP", "TRY", "PLN", "NZD", "SAR",
+];
+
+// One currency marker: a code from CURRENCY_CODES, a symbol, or a dollar with a country
+// prefix (US$, HK$, S$).
+const CODE = `(?:${CURRENCY_CODES.join("|")})`;
+const SYMBOL = "(?:[A-Z]{0,2}\\$|[€£¥￥₩₹₽₺₫₱₪฿])";
+const CURRENCY = `(?:${CODE}(?![A-Z])|${SYMBOL})`;
 const PREFIX = new RegExp(`^${CURRENCY}\\s*`);
-const SUFFIX = new RegExp(`\\s*${CURRENCY}$`);
+const SUFFIX = new RegExp(`\\s*(?<![A-Z])${CURRENCY}$`);
 const SIGN = /^[-+\u2212]\s*/;
 // 1,834 / 1,834.5 (groups of three) or 1834 / 1834.5 / .5 / 1.8e3.
 const GROUPED = /^\d{1,3}(?:,\d{3})+(?:\.\d*)?$/;
@@ -141,6 +155,25 @@ export function looksLikePercent(text: string): boolean {
   const t = text.trim();
   if (!t.includes("%")) return false;
   return parseNumberText(t.replace("%", "")) !== undefined;
+}
+
+// Any currency marker in any case, anywhere: for spotting number-like text, not reading it.
+const ANY_CURRENCY = new RegExp(
+  `(?<![A-Za-z])(?:${CODE}(?![A-Za-z])|[A-Za-z]{0,2}\\$|[€£¥￥₩₹₽₺₫₱₪฿])`,
+  "gi",
+);
+
+/**
+ * True for text that looks like a number but is not in a form parseNumberText reads:
+ * "1 834", "(1,834)", "usd 1834", "1.834,50". Such text holds only digits, separators
+ * (comma, full stop, spaces), parentheses, a sign at either end and currency marks or codes
+ * in any case. Index or lane names ("FBX11", "WCI 40", "40'") and years with words are not.
+ */
+export function looksLikeMalformedNumber(text: string): boolean {
+  if (parseNumberText(text) !== undefined) return false;
+  let s = text.replace(ANY_CURRENCY, " ").replace(/[()]/g, " ").trim();
+  s = s.replace(/^[+\-\u2212]\s*/, "").replace(/\s*[+\-\u2212]$/, "");
+  return /\d/.test(s) && /^[\d.,\s]+$/.test(s);
 }
 
 /** Where a cell sits, for messages: a sentence subject such as "Row 14", and its offset. */

@@ -1,5 +1,5 @@
 /**
- * Dates as they reach the intake: Excel serial numbers of the 1900 date system, ISO-8601
+ * Dates as they reach the intake: Excel serial numbers (1900 or 1904 date system), ISO-8601
  * calendar-date text, and JS Date objects. Every result is a UTC-midnight Date.
  *
  * The 1900 date system counts serial 1 as 1 January 1900 and, for compatibility with
@@ -11,7 +11,16 @@
  * silently give two serials the same day (and a duplicate-date error far from its cause);
  * no freight series reaches back to 1900, so a 60 in a date column is almost surely a
  * number typed into the wrong column and is better reported than repaired.
+ *
+ * The 1904 date system (books from older Excel for Mac, or with "Use 1904 date system" set)
+ * counts serial 0 as 1 January 1904 and has no phantom day, so a 1904 serial is the day
+ * count from 1904-01-01. 1904-01-01 is 4 × 365 = 1460 days after 1900-01-01 (serial 1) and
+ * the phantom day adds one more, so it is serial 1462 in the 1900 system: the same serial
+ * means a day 1462 days later in the 1904 system than in the 1900 system.
  */
+
+/** Which of Excel's two date systems a serial number counts in (see the header comment). */
+export type DateSystem = 1900 | 1904;
 
 const MS_PER_DAY = 86_400_000;
 
@@ -21,6 +30,8 @@ export const EXCEL_SERIAL_MIN = 1;
 export const EXCEL_SERIAL_MAX = 2_958_465;
 /** The serial of the non-existent 29 February 1900. */
 export const EXCEL_PHANTOM_LEAP_DAY = 60;
+/** Last serial of the 1904 date system (31 December 9999); its first is 0 (1 January 1904). */
+export const EXCEL_1904_SERIAL_MAX = EXCEL_SERIAL_MAX - 1462;
 
 /**
  * A UTC-midnight Date for a proleptic Gregorian calendar day (month 1–12). Built with
@@ -46,16 +57,22 @@ export function fromDayNumber(day: number): Date {
 // Day numbers of the two anchors of the 1900 system (see the header comment).
 const DAY_1899_12_30 = dayNumber(utcDay(1899, 12, 30));
 const DAY_1899_12_31 = DAY_1899_12_30 + 1;
+const DAY_1904_01_01 = dayNumber(utcDay(1904, 1, 1));
 
 /**
  * The day an Excel serial (1900 date system) stands for, as a UTC-midnight Date. The time
  * of day in a fractional serial is dropped (truncated towards the start of the day).
  * Returns undefined for serial 60 (29 February 1900, which never existed), for serials
- * below 1 and above 2958465, and for non-finite numbers.
+ * below 1 and above 2958465, and for non-finite numbers. With `dateSystem` 1904 the serial
+ * counts days from 1904-01-01 (serial 0) up to 2957003 (9999-12-31).
  */
-export function excelSerialToDate(serial: number): Date | undefined {
+export function excelSerialToDate(serial: number, dateSystem: DateSystem = 1900): Date | undefined {
   if (!Number.isFinite(serial)) return undefined;
   const whole = Math.floor(serial);
+  if (dateSystem === 1904) {
+    if (whole < 0 || whole > EXCEL_1904_SERIAL_MAX) return undefined;
+    return fromDayNumber(DAY_1904_01_01 + whole);
+  }
   if (whole < EXCEL_SERIAL_MIN || whole > EXCEL_SERIAL_MAX) return undefined;
   if (whole === EXCEL_PHANTOM_LEAP_DAY) return undefined;
   const day = whole < EXCEL_PHANTOM_LEAP_DAY ? DAY_1899_12_31 + whole : DAY_1899_12_30 + whole;
@@ -118,14 +135,14 @@ export type DateCell =
 /**
  * Reads one date cell as it reaches Office.js code or the batch reader: a serial number,
  * ISO text, or a JS Date (read by its UTC calendar day). Blanks are "", whitespace-only
- * text, null and undefined. Anything else is not a date.
+ * text, null and undefined. Anything else is not a date. Serials count in `dateSystem`.
  */
-export function readDateCell(value: unknown): DateCell {
+export function readDateCell(value: unknown, dateSystem: DateSystem = 1900): DateCell {
   if (value === null || value === undefined) return { kind: "blank" };
   if (typeof value === "number") {
-    const date = excelSerialToDate(value);
+    const date = excelSerialToDate(value, dateSystem);
     if (date) return { kind: "date", date };
-    return { kind: "invalid", reason: serialProblem(value) };
+    return { kind: "invalid", reason: serialProblem(value, dateSystem) };
   }
   if (typeof value === "string") {
     if (value.trim() === "") return { kind: "blank" };
@@ -146,9 +163,14 @@ export function readDateCell(value: unknown): DateCell {
   return { kind: "invalid", reason: "the cell holds neither a date nor date text" };
 }
 
-function serialProblem(serial: number): string {
+function serialProblem(serial: number, dateSystem: DateSystem): string {
   if (!Number.isFinite(serial)) return "it is not a finite number";
   const whole = Math.floor(serial);
+  if (dateSystem === 1904) {
+    return whole < 0
+      ? "in the 1904 date system, Excel dates start at serial 0, which is 1 January 1904"
+      : "in the 1904 date system, Excel dates end at serial 2957003, which is 31 December 9999";
+  }
   if (whole === EXCEL_PHANTOM_LEAP_DAY) {
     return "Excel's serial 60 stands for 29 February 1900, a day that never existed";
   }

@@ -6,19 +6,22 @@ export {
   EXCEL_SERIAL_MIN,
   EXCEL_SERIAL_MAX,
   EXCEL_PHANTOM_LEAP_DAY,
+  EXCEL_1904_SERIAL_MAX,
   excelSerialToDate,
   dateToExcelSerial,
   parseIsoDateText,
   readDateCell,
   utcDay,
 } from "./excelDate";
-export type { DateCell } from "./excelDate";
+export type { DateCell, DateSystem } from "./excelDate";
 export { isoWeek, isoWeeksInYear, isoWeekStart, isoWeekday, isoWeekLabel } from "./isoWeek";
 export type { IsoWeek } from "./isoWeek";
 export {
+  CURRENCY_CODES,
   EXCEL_ERROR_TEXTS,
   excelErrorOf,
   isBlankCell,
+  looksLikeMalformedNumber,
   parseNumberText,
   readRateCell,
 } from "./cells";

@@ -2,14 +2,23 @@
  * readWeekly: a selected column (or row) of weekly rates, with an optional block of dates
  * beside it, turned into a WeeklySeries or refused with an InputError naming the cell.
  *
- * Order of work: shape → header → trim blank rows at both ends → read each cell (rate, then
- * date) in row order → place the dates on a weekly grid → positivity → enough points →
- * fill short gaps. The first problem found is the one reported.
+ * Order of work: shape → header → trim blank rows at both ends, and trailing rows of 0 →
+ * read each cell (rate, then date) in row order → place the dates on a weekly grid →
+ * positivity → enough points → fill short gaps. The first problem found is the one reported.
  */
-import { readRateCell, excelErrorOf, isBlankCell, parseNumberText, looksLikePercent } from "./cells";
+import {
+  readRateCell,
+  excelErrorOf,
+  isBlankCell,
+  parseNumberText,
+  looksLikePercent,
+  looksLikeMalformedNumber,
+} from "./cells";
 import { InputError } from "./errors";
-import { readDateCell } from "./excelDate";
+import { DateSystem, readDateCell } from "./excelDate";
+import { firstValueOutOfScale } from "./firstScale";
 import { fillGap, fillScale, findGaps, FillScale, Gap } from "./gapFill";
+import { trailingZeros } from "./trailingZeros";
 import type { WeeklySeries } from "./types";
 import { DatedRow, gridDate, placeOnWeekGrid, WeekGrid } from "./weekGrid";
 import {
@@ -41,6 +50,14 @@ export interface IntakeOptions {
   /** Offsets for date cells when the dates block sits elsewhere (default: as above). */
   dateRowOffset?: number;
   dateColOffset?: number;
+  /**
+   * The workbook's date system, for dates given as serial numbers. 1900 (default): serial 1
+   * is 1900-01-01, as in Excel for Windows and most books. 1904: serial 0 is 1904-01-01, as
+   * in books made by older Excel for Mac (Excel's "Use 1904 date system" setting); the same
+   * serial is then 1462 days later than in the 1900 system. Date text and Date objects are
+   * read the same in both.
+   */
+  dateSystem?: DateSystem;
 }
 
 interface Resolved {
@@ -49,6 +66,7 @@ interface Resolved {
   allowLongGaps: boolean;
   minPoints: number;
   positive: boolean;
+  dateSystem: DateSystem;
 }
 
 function resolve(options: IntakeOptions): Resolved {
@@ -63,6 +81,10 @@ function resolve(options: IntakeOptions): Resolved {
   };
   whole(maxFill, 0, "The longest gap to fill");
   whole(minPoints, 1, "The fewest points");
+  const { dateSystem = 1900 } = options;
+  if (dateSystem !== 1900 && dateSystem !== 1904) {
+    throw new InputError("BAD_OPTION", "The date system must be 1900 or 1904.");
+  }
   for (const k of ["rowOffset", "colOffset", "dateRowOffset", "dateColOffset"] as const) {
     if (options[k] !== undefined) whole(options[k], 0, `The ${k} option`);
   }
@@ -72,6 +94,7 @@ function resolve(options: IntakeOptions): Resolved {
     minPoints,
     allowLongGaps: options.allowLongGaps === true,
     positive: options.positive === true,
+    dateSystem,
   };
 }
 
@@ -150,13 +173,28 @@ function headerOf(
   rate: unknown,
   date: unknown,
   hasDates: boolean,
-  mode: boolean | "auto",
+  opt: Resolved,
+  loc: Locator,
 ): { isHeader: boolean; name?: string } {
+  const mode = opt.header;
   const name = isLabelText(rate) ? rate.trim() : undefined;
   if (mode === true) return { isHeader: true, name };
   if (mode === false) return { isHeader: false };
-  const dateOk = !hasDates || readDateCell(date).kind !== "date";
-  return name !== undefined && dateOk ? { isHeader: true, name } : { isHeader: false };
+  const dateCell = hasDates ? readDateCell(date, opt.dateSystem).kind : "blank";
+  if (name === undefined || dateCell === "date") return { isHeader: false };
+  // "1 834" or "(1,834)" on top is a rate typed in a form we do not read, not a column name;
+  // taking it as the header would drop that week without a word. A label beside it in the
+  // dates column ("Week ending") still makes the row a header row.
+  if (looksLikeMalformedNumber(name) && !isLabelText(date)) {
+    throw new InputError(
+      "NOT_A_NUMBER",
+      `${capitalise(positionName(loc, 0))} holds ${shownValue(rate)}, which looks like a rate but is ` +
+        "not written in a form Fairlead reads; write it as 1834 or 1,834.50 (a currency code " +
+        "such as USD before or after is fine), or put a name in words there if it is a header.",
+      loc.valueCell(0),
+    );
+  }
+  return { isHeader: true, name };
 }
 
 /** One row kept after trimming: its position in the block and the rate read (null = blank). */
@@ -171,7 +209,13 @@ function readRate(raw: unknown, at: number, loc: Locator): number | null {
   return r;
 }
 
-function readDate(raw: unknown, at: number, hasRate: boolean, loc: Locator): Date | null {
+function readDate(
+  raw: unknown,
+  at: number,
+  hasRate: boolean,
+  loc: Locator,
+  dateSystem: DateSystem,
+): Date | null {
   const label = capitalise(positionName(loc, at));
   const cell = loc.dateCell(at);
   const err = excelErrorOf(raw);
@@ -182,7 +226,7 @@ function readDate(raw: unknown, at: number, hasRate: boolean, loc: Locator): Dat
       cell,
     );
   }
-  const d = readDateCell(raw);
+  const d = readDateCell(raw, dateSystem);
   if (d.kind === "date") return d.date;
   if (d.kind === "invalid") {
     throw new InputError(
@@ -290,7 +334,7 @@ export function readWeekly(values: unknown[][], options: IntakeOptions = {}): We
   const dateCells = hasDates ? datesLine(options.dates, line) : [];
   const warnings: string[] = [];
 
-  const head = headerOf(cells[0], dateCells[0], hasDates, opt.header);
+  const head = headerOf(cells[0], dateCells[0], hasDates, opt, loc);
   const top = head.isHeader ? 1 : 0;
 
   // Trim: the series runs from the first to the last cell with anything in the rate column.
@@ -304,10 +348,15 @@ export function readWeekly(values: unknown[][], options: IntakeOptions = {}): We
   if (first < 0) {
     throw new InputError("TOO_FEW_POINTS", "The selection holds no rates.");
   }
+  const zeros = trailingZeros(cells, first, last);
+  if (zeros) {
+    last = zeros.keptLast;
+    warnings.push(zeros.warning(loc));
+  }
   const leadingDated: number[] = [];
   for (let i = top; i < first && hasDates; i++) {
     // Only real dates count; a label such as "Week ending" above the data is no week.
-    if (readDateCell(dateCells[i]).kind === "date") leadingDated.push(i);
+    if (readDateCell(dateCells[i], opt.dateSystem).kind === "date") leadingDated.push(i);
   }
 
   // Read every kept row, rate then date, in row order.
@@ -320,7 +369,7 @@ export function readWeekly(values: unknown[][], options: IntakeOptions = {}): We
       rows.push({ at, value });
       continue;
     }
-    const date = readDate(dateCells[at], at, value !== null, loc);
+    const date = readDate(dateCells[at], at, value !== null, loc, opt.dateSystem);
     if (date === null) {
       skipped.push(at); // both cells blank: nothing to place
       continue;
@@ -351,6 +400,8 @@ export function readWeekly(values: unknown[][], options: IntakeOptions = {}): We
     );
   }
   if (grid) warnings.push(...grid.warnings);
+  const scale = firstValueOutOfScale(rows, loc);
+  if (scale !== undefined) warnings.push(scale);
 
   if (opt.positive) {
     const bad = rows.find((r) => r.value !== null && !(r.value > 0));

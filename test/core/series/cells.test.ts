@@ -1,7 +1,9 @@
 /** One rate cell → number, blank or InputError (the forms desks paste into workbooks). */
 import {
+  CURRENCY_CODES,
   EXCEL_ERROR_TEXTS,
   excelErrorOf,
+  looksLikeMalformedNumber,
   parseNumberText,
   readRateCell,
 } from "../../../src/core/series/cells";
@@ -166,4 +168,35 @@ describe("parseNumberText", () => {
   test("refuses the empty string", () => {
     expect(parseNumberText("")).toBeUndefined();
   });
+});
+
+describe("currency codes", () => {
+  test("the list is the documented 30 codes, each read before and after a number", () => {
+    expect(CURRENCY_CODES).toHaveLength(30);
+    for (const code of CURRENCY_CODES) {
+      expect(parseNumberText(`${code} 1,834`)).toBe(1834);
+      expect(parseNumberText(`1834.5${code}`)).toBe(1834.5);
+    }
+    expect(parseNumberText("RMB 12,500")).toBe(12500);
+  });
+
+  test.each([["FBX11"], ["WCI 40"], ["ABC 100"], ["100 XYZ"], ["EURO 40"], ["USDX 5"], ["40 FEU"]])(
+    "%p is not a number: three capitals are not a currency by themselves",
+    (v) => {
+      expect(parseNumberText(v)).toBeUndefined();
+      const e = expectError(readRateCell(v, place), "NOT_A_NUMBER");
+      expect(e.message).toBe(`Row 14 holds "${v}", which is not a number.`);
+    },
+  );
+});
+
+describe("looksLikeMalformedNumber", () => {
+  test.each([["1 834"], ["(1,834)"], ["usd 1834"], ["1.834,50"], ["Eur 1 834"], ["− 1 834 $"]])(
+    "%p looks like a number written in a form we do not read",
+    (v) => expect(looksLikeMalformedNumber(v)).toBe(true),
+  );
+  test.each([["1834"], ["USD 1,834"], ["FBX11"], ["WCI 40"], ["40'"], ["2024-25"], ["Rate"], ["()"]])(
+    "%p does not",
+    (v) => expect(looksLikeMalformedNumber(v)).toBe(false),
+  );
 });

@@ -149,3 +149,36 @@ describe("readDateCell", () => {
     },
   );
 });
+
+// The 1904 date system counts serial 0 as 1904-01-01 with no phantom day, so a 1904 serial
+// is a plain day count; 1904 was a leap year, so serial 60 is 1904-03-01 (31 + 29 days).
+// 2957003 = 2958465 − 1462 is 9999-12-31. 43466 is 2019-01-01 in the 1900 system (from
+// memory) and 1462 days later, 2023-01-02, in the 1904 system.
+describe("the 1904 date system", () => {
+  test.each([
+    [0, "1904-01-01"],
+    [60, "1904-03-01"],
+    [43466, "2023-01-02"],
+    [2957003, "9999-12-31"],
+  ])("serial %d is %s", (serial, day) => {
+    expect(iso(excelSerialToDate(serial, 1904))).toBe(day);
+  });
+
+  test("is 1462 days after the 1900 system for the same serial", () => {
+    for (const serial of [61, 25569, 43466, 45658]) {
+      const a = excelSerialToDate(serial)?.getTime() ?? NaN;
+      const b = excelSerialToDate(serial, 1904)?.getTime() ?? NaN;
+      expect((b - a) / 86_400_000).toBe(1462);
+    }
+  });
+
+  test("outside 0 … 2957003 is not a date, with a reason", () => {
+    expect(excelSerialToDate(-1, 1904)).toBeUndefined();
+    expect(excelSerialToDate(2957004, 1904)).toBeUndefined();
+    expect(readDateCell(2957004, 1904)).toEqual({
+      kind: "invalid",
+      reason: "in the 1904 date system, Excel dates end at serial 2957003, which is 31 December 9999",
+    });
+    expect(readDateCell(43466, 1904)).toEqual({ kind: "date", date: utcDay(2023, 1, 2) });
+  });
+});

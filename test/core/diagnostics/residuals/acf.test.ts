@@ -9,6 +9,7 @@ import {
 } from "../../../../src/core/diagnostics/residuals";
 import { InputError } from "../../../../src/core/series/errors";
 import { fx, maxAbsErr, maxRelErr, relErr } from "./fixture";
+import { expectInputError } from "../../../inputError";
 
 // Tolerances. Autocorrelations lie in [−1, 1], so absolute error is the meaningful scale:
 // each is a ratio of two sums of up to n = 2283 products, whose rounding is bounded by about
@@ -111,14 +112,6 @@ describe("bad input is an InputError with a sentence", () => {
     ["level", () => correlogram(y, { level: 5 }), "BAD_OPTION", /between 0 and 1/],
     ["period", () => correlogram(y, { period: 0 }), "BAD_OPTION", /seasonal period/],
   ])("%s", (_what, run, code, message) => {
-    let caught: unknown;
-    try {
-      run();
-    } catch (e) {
-      caught = e;
-    }
-    expect(caught).toBeInstanceOf(InputError);
-    expect((caught as InputError).code).toBe(code);
-    expect((caught as InputError).message).toMatch(message);
+    expectInputError(run, code, message);
   });
 });

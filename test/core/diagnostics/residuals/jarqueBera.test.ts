@@ -1,6 +1,7 @@
 import { jarqueBera } from "../../../../src/core/diagnostics/residuals";
 import { InputError } from "../../../../src/core/series/errors";
 import { fx, relErr } from "./fixture";
+import { expectInputError } from "../../../inputError";
 
 // JB, S and K are closed forms in three moment sums; their relative error is a few ε per
 // term (worst seen 2.5e-14, weekly CO2). The χ²(2) tail is exp(−JB/2), so p's relative error
@@ -48,14 +49,6 @@ describe("bad input is an InputError with a sentence", () => {
     ["constant", () => jarqueBera([3, 3, 3, 3]), "CONSTANT_SERIES", /every week is 3/],
     ["level", () => jarqueBera([1, 2, 4, 8], { level: 1.5 }), "BAD_OPTION", /between 0 and 1/],
   ])("%s", (_what, run, code, message) => {
-    let caught: unknown;
-    try {
-      run();
-    } catch (e) {
-      caught = e;
-    }
-    expect(caught).toBeInstanceOf(InputError);
-    expect((caught as InputError).code).toBe(code);
-    expect((caught as InputError).message).toMatch(message);
+    expectInputError(run, code, message);
   });
 });

@@ -8,6 +8,7 @@ import { chi2Quantile } from "../../../../src/core/math/distributions";
 import { MersenneTwister } from "../../../../src/core/math/rng";
 import { InputError } from "../../../../src/core/series/errors";
 import { fx, maxRelErr, relErr } from "./fixture";
+import { expectInputError } from "../../../inputError";
 
 // Q is n(n+2) times a sum of 30 positive terms built from the autocorrelations, so its
 // relative error is that of the ACF, ~1e-15 (worst seen 1e-14). A χ² tail p-value amplifies
@@ -109,14 +110,6 @@ describe("bad input is an InputError with a sentence", () => {
     ["constant", () => ljungBox(new Array(50).fill(2)), "CONSTANT_SERIES", /constant/],
     ["level", () => ljungBox(y, { level: 0 }), "BAD_OPTION", /between 0 and 1/],
   ])("%s", (_what, run, code, message) => {
-    let caught: unknown;
-    try {
-      run();
-    } catch (e) {
-      caught = e;
-    }
-    expect(caught).toBeInstanceOf(InputError);
-    expect((caught as InputError).code).toBe(code);
-    expect((caught as InputError).message).toMatch(message);
+    expectInputError(run, code, message);
   });
 });

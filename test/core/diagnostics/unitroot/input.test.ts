@@ -3,23 +3,13 @@ import { kpss } from "../../../../src/core/diagnostics/unitroot/kpss";
 import { pp } from "../../../../src/core/diagnostics/unitroot/pp";
 import { unitRootSummary } from "../../../../src/core/diagnostics/unitroot/integration";
 import { InputError } from "../../../../src/core/series/errors";
+import { expectInputError } from "../../../inputError";
 
 function noisy(n: number): Float64Array {
   // A deterministic but irregular series (no randomness needed to test input handling).
   return Float64Array.from({ length: n }, (_, t) => 100 + Math.sin(t * 1.7) * 5 + t * 0.1);
 }
 
-function expectInputError(f: () => unknown, code: string, message: RegExp): void {
-  let caught: unknown;
-  try {
-    f();
-  } catch (e) {
-    caught = e;
-  }
-  expect(caught).toBeInstanceOf(InputError);
-  expect((caught as InputError).code).toBe(code);
-  expect((caught as InputError).message).toMatch(message);
-}
 
 describe("unit-root tests refuse bad input with a sentence", () => {
   it("too short for the lags asked", () => {

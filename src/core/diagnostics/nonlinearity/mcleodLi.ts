@@ -36,6 +36,11 @@ export function squaredAutocorrelationQ(a: Float64Array, L: number): { q: number
     c[t] = a[t] * a[t] - s2;
     c0 += c[t] * c[t];
   }
+  // Every squared residual equal (e.g. residuals of ±σ only): the squares carry no
+  // variation, the autocorrelations are undefined, and the test has nothing to say.
+  if (!(c0 > 1e-24 * Math.max(1, s2 * s2 * N))) {
+    throw new Error("McLeod–Li: the squared residuals do not vary");
+  }
   const acf = new Float64Array(L);
   let q = 0;
   for (let k = 1; k <= L; k++) {

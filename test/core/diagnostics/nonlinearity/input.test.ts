@@ -107,3 +107,12 @@ test("summary leaves out degenerate tests and says so: rates on two levels", () 
   }
   for (const r of t.rows) expect(Number.isFinite(r[1] as number)).toBe(true);
 });
+
+describe("McLeod–Li with squared residuals that do not vary", () => {
+  test("is refused rather than giving NaN, and the summary leaves it out with a sentence", () => {
+    // Residuals of exactly ±1 have constant squares: r_k is 0/0.
+    const { squaredAutocorrelationQ } = jest.requireActual("../../../../src/core/diagnostics/nonlinearity/mcleodLi") as typeof import("../../../../src/core/diagnostics/nonlinearity/mcleodLi");
+    const a = Float64Array.from({ length: 60 }, (_v, t) => (t % 3 === 0 ? 1 : -1));
+    expect(() => squaredAutocorrelationQ(a, 5)).toThrow(/do not vary/);
+  });
+});

@@ -34,7 +34,10 @@ import { pp } from "./pp";
 export interface UnitRootSummaryOptions {
   /** Significance level of every verdict. Default 0.05. */
   level?: number;
-  /** ADF lag rule; default "aic". */
+  /**
+   * ADF lag rule; default "maic", the modified AIC of Ng & Perron (2001), because plain AIC
+   * over-rejects a random walk in series as short as a year or two of weeks.
+   */
   lagRule?: LagRule;
   /**
    * A seasonally adjusted version of the rates, supplied by the caller: same scale and
@@ -88,7 +91,7 @@ function classify(a: TestResult, p: TestResult, k: TestResult): Evidence {
 
 function runSet(y: Float64Array, name: string, subject: string, trend: boolean, options: UnitRootSummaryOptions): TransformResults {
   const level = options.level ?? DEFAULT_LEVEL;
-  const a = adf(y, { regression: trend ? "ct" : "c", lagRule: options.lagRule ?? "aic", level, subject });
+  const a = adf(y, { regression: trend ? "ct" : "c", lagRule: options.lagRule ?? "maic", level, subject });
   const p = pp(y, { regression: trend ? "ct" : "c", level, subject });
   const k = kpss(y, { regression: trend ? "ct" : "c", level, subject });
   return { name, adf: a, pp: p, kpss: k, evidence: classify(a, p, k) };
@@ -209,6 +212,13 @@ function conclude(levels: TransformResults, logs: TransformResults | null, diff:
   };
 }
 
+/** The table note naming how the ADF lags were chosen. */
+function lagNote(rule: LagRule): string {
+  if (rule === "maic") return "ADF lags chosen by the modified AIC of Ng & Perron (2001).";
+  if (rule === "tstat") return "ADF lags chosen by the t-statistic on the last lag (general-to-specific).";
+  return `ADF lags chosen by the ${rule.toUpperCase()}.`;
+}
+
 function renamed(r: TestResult, where: string): TestResult {
   return { ...r, test: `${r.test} — ${where}` };
 }
@@ -267,6 +277,7 @@ export function unitRootSummary(y: ArrayLike<number>, options: UnitRootSummaryOp
       "At 1%, 5% or 10% their verdicts compare the statistic with that finite-sample critical value, so in a short series a " +
       "p-value just below the level can sit beside \"not rejected\". " +
       "KPSS p-values are interpolated in the KPSS (1992) table and bounded outside it.",
+    lagNote(options.lagRule ?? "maic"),
   );
   const c = conclude(levels, logs, differences, level, `the ${sa}rate`);
   const tests = testTable("Unit-root and stationarity tests", rows, notes);

@@ -163,8 +163,8 @@ describe("unitRootSummary weighs levels and logs", () => {
 });
 
 describe("unitRootSummary says when the tests disagree", () => {
-  it("the Nile (statsmodels dataset): ADF and PP reject but KPSS rejects too → inconclusive, treated as I(1)", () => {
-    const u = unitRootSummary(series.nile);
+  it("the Nile (statsmodels dataset), AIC lags: ADF and PP reject but KPSS rejects too → inconclusive, treated as I(1)", () => {
+    const u = unitRootSummary(series.nile, { lagRule: "aic" });
     expect(u.order).toBe(1);
     expect(u.conclusive).toBe(false);
     expect(u.levels.evidence).toBe("mixed");
@@ -175,6 +175,25 @@ describe("unitRootSummary says when the tests disagree", () => {
         "is the cautious choice.",
     );
     expect(u.tables[1].rows).toEqual([["log rate", 1, "inconclusive: the tests disagree", u.reasoning]]);
+  });
+
+  it("the Nile, default MAIC lags: PP rejects but ADF does not on either scale → still inconclusive, treated as I(1)", () => {
+    // With a trend, MAIC picks 12 lags in levels (11 in logs) where AIC picks 1: the
+    // τ_T(k) penalty of Ng & Perron (2001) charges the large |γ̂| of short lags, and at 12
+    // lags τ = −1.78 against a 5% critical value of −3.46. The order and the verdict on the
+    // changes do not move; only the ADF half of the sentence on the scales does.
+    const u = unitRootSummary(series.nile);
+    expect(u.levels.adf.lags).toBe(12);
+    expect(u.logs?.adf.lags).toBe(11);
+    expect(u.order).toBe(1);
+    expect(u.conclusive).toBe(false);
+    expect(u.levels.evidence).toBe("mixed");
+    expect(u.reasoning).toBe(
+      "I(0) or I(1): the tests disagree at 5% (PP rejects a unit root but ADF does not and KPSS rejects stationarity in levels; " +
+        "PP rejects a unit root but ADF does not and KPSS rejects stationarity in log levels), while ADF and PP reject a unit root " +
+        "and KPSS does not reject stationarity in weekly changes of the log rate; treated as I(1) for modelling, which " +
+        "is the cautious choice.",
+    );
   });
 
   it("a smooth annual cycle left in the rates splits ADF and PP: inconclusive I(1) in at least 36 of 40 seeds", () => {
@@ -246,5 +265,19 @@ describe("unitRootSummary table notes", () => {
     const notes = unitRootSummary(series.lgdp).tables[0].notes.join(" ");
     expect(notes).toMatch(/ADF and PP p-values are MacKinnon \(1994\) asymptotic values/);
     expect(notes).toMatch(/verdicts compare the statistic with that finite-sample critical value/);
+  });
+
+  it("use the modified AIC of Ng & Perron (2001) for the ADF lags by default, and say so", () => {
+    const r = unitRootSummary(series.nile);
+    for (const set of [r.levels, r.logs, r.differences]) expect(set?.adf.parameters["lags chosen by"]).toBe("modified AIC (Ng & Perron 2001)");
+    expect(r.tables[0].notes.join(" ")).toMatch(/lags chosen by the modified AIC of Ng & Perron \(2001\)/);
+  });
+
+  it("let lagRule override the default, and the note follows it", () => {
+    const r = unitRootSummary(series.nile, { lagRule: "aic" });
+    expect(r.levels.adf.parameters["lags chosen by"]).toBe("AIC");
+    const notes = r.tables[0].notes.join(" ");
+    expect(notes).toMatch(/ADF lags chosen by the AIC\./);
+    expect(notes).not.toMatch(/modified AIC/);
   });
 });

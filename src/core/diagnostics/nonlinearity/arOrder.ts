@@ -15,8 +15,7 @@
  * changes only by terms in that span; BDS and McLeod–Li are scale-free), while cubes of raw
  * freight rates in the thousands would make the auxiliary regressions needlessly ill-conditioned.
  */
-import { Matrix } from "ml-matrix";
-import { ols, OlsResult } from "../../math/ols";
+import { gaussianCriteria, ols, OlsFit, QrFactor, qrFactor } from "../../math/ols";
 import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
 import { DEFAULT_LEVEL, levelText } from "../types";
@@ -66,22 +65,9 @@ export function arDesign(y: Float64Array, p: number, start: number = p): ArDesig
   return { target, lags, rows, start };
 }
 
-/** [1, c₁, c₂, …] as a matrix for `ols`. */
-export function withConstant(cols: Float64Array[], rows: number): Matrix {
-  const k = cols.length + 1;
-  const X = new Matrix(rows, k);
-  for (let r = 0; r < rows; r++) {
-    X.set(r, 0, 1);
-    for (let j = 1; j < k; j++) X.set(r, j, cols[j - 1][r]);
-  }
-  return X;
-}
-
-/** The columns as a matrix with no constant. */
-export function columnsMatrix(cols: Float64Array[], rows: number): Matrix {
-  const X = new Matrix(rows, cols.length);
-  for (let r = 0; r < rows; r++) for (let j = 0; j < cols.length; j++) X.set(r, j, cols[j][r]);
-  return X;
+/** [1, c₁, c₂, …] as columns for `ols` (the columns are shared, not copied). */
+export function withConstant(cols: Float64Array[], rows: number): Float64Array[] {
+  return [new Float64Array(rows).fill(1), ...cols];
 }
 
 /**
@@ -125,18 +111,39 @@ export interface ArOrderChoice {
   commonSample: number;
 }
 
-/** AIC choice of the AR order on the common sample t = P+1..n (module comment). */
-export function chooseArOrder(y: Float64Array, maxOrder: number = defaultMaxOrder(y.length)): ArOrderChoice {
+/**
+ * aic[p − 1] for AR(p), p = 1..P, on the common sample. The AR(p) design is the leading p + 1
+ * columns of the AR(P) one on the same rows, so one QR factor gives every order exactly as its
+ * own fit would (QrFactor.leadingFits). When some order's lags are collinear (the rates repeat
+ * an exact pattern) the orders are fitted one by one and those that fail get +∞.
+ */
+function commonSampleAic(y: Float64Array, maxOrder: number): Float64Array {
   const aic = new Float64Array(maxOrder);
-  let best = 1;
+  const full = arDesign(y, maxOrder, maxOrder);
+  try {
+    const fits = qrFactor(withConstant(full.lags, full.rows)).leadingFits(full.target);
+    for (let p = 1; p <= maxOrder; p++) aic[p - 1] = gaussianCriteria(fits[p].ssr, full.rows, p + 1).aic;
+    return aic;
+  } catch {
+    // Fall through to order-by-order fits, which tell the failing orders apart.
+  }
   for (let p = 1; p <= maxOrder; p++) {
     const d = arDesign(y, p, maxOrder);
     try {
-      aic[p - 1] = ols(withConstant(d.lags, d.rows), d.target).aic;
+      aic[p - 1] = ols(withConstant(d.lags, d.rows), d.target, { inference: false }).aic;
     } catch {
-      // Collinear lags (the rates repeat an exact pattern): this order cannot be fitted.
+      // Collinear lags: this order cannot be fitted.
       aic[p - 1] = Infinity;
     }
+  }
+  return aic;
+}
+
+/** AIC choice of the AR order on the common sample t = P+1..n (module comment). */
+export function chooseArOrder(y: Float64Array, maxOrder: number = defaultMaxOrder(y.length)): ArOrderChoice {
+  const aic = commonSampleAic(y, maxOrder);
+  let best = 1;
+  for (let p = 1; p <= maxOrder; p++) {
     if (aic[p - 1] < aic[best - 1] || !Number.isFinite(aic[best - 1])) best = p;
   }
   if (!Number.isFinite(aic[best - 1])) throw exactPatternError();
@@ -211,9 +218,9 @@ export function prepareSeries(y: ArrayLike<number>, options: ArOrderOptions, wha
 
 export interface ArFit {
   design: ArDesign;
-  /** The AR regressors [1, y_{t−1}, …, y_{t−p}]. */
-  X: Matrix;
-  fit: OlsResult;
+  /** The AR regressors [1, y_{t−1}, …, y_{t−p}], factored once for every auxiliary regression on them. */
+  X: QrFactor;
+  fit: OlsFit;
 }
 
 /** The null AR(p) fitted by OLS on t = p+1..n (cached on the prepared series). */
@@ -221,8 +228,8 @@ export function fitAr(prep: PreparedSeries, p: number): ArFit {
   const cached = prep.fits.get(p);
   if (cached) return cached;
   const design = arDesign(prep.z, p);
-  const X = withConstant(design.lags, design.rows);
-  const out = { design, X, fit: ols(X, design.target) };
+  const X = qrFactor(withConstant(design.lags, design.rows));
+  const out = { design, X, fit: ols(X, design.target, { inference: false }) };
   prep.fits.set(p, out);
   return out;
 }

@@ -10,7 +10,6 @@
  * of regressing y_t on the AR regressors and ξ̂_t together).
  */
 import { fSf } from "../../math/distributions";
-import { ols } from "../../math/ols";
 import type { TestResult } from "../types";
 import {
   ArOrderOptions, fitAr, nonlinearityVerdict, orderParameters, prepareSeries, PreparedSeries, requireNewDirection,
@@ -29,7 +28,7 @@ export function keenanPrepared(prep: PreparedSeries): TestResult {
   const rows = fit.n;
   const sq = new Float64Array(rows);
   for (let r = 0; r < rows; r++) sq[r] = fit.fitted[r] * fit.fitted[r];
-  const xi = ols(X, sq).residuals; // (ii)
+  const xi = X.residuals(sq); // (ii), on the factor of (i)
   const e = fit.residuals;
   let exi = 0;
   let xixi = 0;

@@ -33,7 +33,7 @@ export function terasvirtaPrepared(prep: PreparedSeries): TestResult {
   requireResidualDf(df2, n, p, "Teräsvirta's test");
   const { design, fit } = fitAr(prep, p); // step 1
   const cols = [...design.lags, ...lagProducts(design.lags, 2), ...lagProducts(design.lags, 3)];
-  const aux = ols(withConstant(cols, T), fit.residuals); // step 2
+  const aux = ols(withConstant(cols, T), fit.residuals, { inference: false }); // step 2
   const ssr0 = fit.ssr;
   const ssr1 = aux.ssr;
   const F = (ssr0 - ssr1) / m / (ssr1 / df2);

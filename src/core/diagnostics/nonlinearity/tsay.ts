@@ -14,7 +14,7 @@ import { fSf } from "../../math/distributions";
 import { ols } from "../../math/ols";
 import type { TestResult } from "../types";
 import {
-  ArOrderOptions, cappedOrder, columnsMatrix, fitAr, lagProducts, nonlinearityVerdict, orderParameters,
+  ArOrderOptions, cappedOrder, fitAr, lagProducts, nonlinearityVerdict, orderParameters,
   prepareSeries, PreparedSeries, requireNewDirection, requireResidualDf,
 } from "./arOrder";
 
@@ -33,9 +33,9 @@ export function tsayPrepared(prep: PreparedSeries): TestResult {
   requireResidualDf(df2, n, p, "Tsay's test");
   const { design, X, fit } = fitAr(prep, p); // (i)
   const products = lagProducts(design.lags, 2);
-  const xhat = products.map((z) => ols(X, z).residuals); // (ii)
+  const xhat = products.map((z) => X.residuals(z)); // (ii), X factored once
   products.forEach((z, c) => requireNewDirection(z, xhat[c]));
-  const step3 = ols(columnsMatrix(xhat, design.rows), fit.residuals); // (iii)
+  const step3 = ols(xhat, fit.residuals, { inference: false }); // (iii)
   const explained = fit.ssr - step3.ssr;
   const F = explained / m / (step3.ssr / df2);
   const pValue = fSf(F, m, df2);

@@ -28,8 +28,7 @@
  * random walk. Perron & Qu (2007, Economics Letters) show the rule also works with OLS
  * detrending, which is what this regression uses.
  */
-import { Matrix } from "ml-matrix";
-import { ols, type OlsResult } from "../../math/ols";
+import { gaussianCriteria, ols, qrFactor, type LeadingFit, type OlsResult } from "../../math/ols";
 import { normalQuantile } from "../../math/distributions";
 import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
@@ -95,36 +94,52 @@ function largestFeasibleLag(n: number, d: number): number {
  * Design for lag p on the rows that use the last `rows` differences. Columns:
  * deterministic terms (constant; trend 1, 2, …), y_{t−1}, Δy_{t−1} … Δy_{t−p}.
  */
-function design(y: Float64Array, d: Float64Array, p: number, rows: number, regression: UnitRootCase): { X: Matrix; dep: Float64Array; levelCol: number } {
+function design(y: Float64Array, d: Float64Array, p: number, rows: number, regression: UnitRootCase): { X: Float64Array[]; dep: Float64Array; levelCol: number } {
   const m = d.length; // n − 1
-  const start = m - rows;
+  const start = m - rows; // Δy index: d[t] = y[t+1] − y[t], t = start + r
   const nd = deterministicCount(regression);
-  const k = nd + 1 + p;
-  const X = new Matrix(rows, k);
-  const dep = new Float64Array(rows);
-  for (let r = 0; r < rows; r++) {
-    const t = start + r; // Δy index: d[t] = y[t+1] − y[t]
-    dep[r] = d[t];
-    let c = 0;
-    if (nd >= 1) X.set(r, c++, 1);
-    if (nd === 2) X.set(r, c++, r + 1);
-    X.set(r, c++, y[t]);
-    for (let i = 1; i <= p; i++) X.set(r, c++, d[t - i]);
-  }
-  return { X, dep, levelCol: nd };
+  const X: Float64Array[] = [];
+  if (nd >= 1) X.push(new Float64Array(rows).fill(1));
+  if (nd === 2) X.push(Float64Array.from({ length: rows }, (_, r) => r + 1));
+  X.push(y.slice(start, start + rows));
+  for (let i = 1; i <= p; i++) X.push(d.slice(start - i, start - i + rows));
+  return { X, dep: d.slice(start, start + rows), levelCol: nd };
 }
 
-function fit(X: Matrix, dep: Float64Array, what: string): OlsResult {
+function exactPatternError(what: string): InputError {
+  return new InputError(
+    "CONSTANT_SERIES",
+    `${what} cannot be run: the series moves in an exact pattern (for example a straight line), so there is nothing random to test.`,
+  );
+}
+
+function fit(X: Float64Array[], dep: Float64Array, what: string): OlsResult {
   try {
     return ols(X, dep);
   } catch {
     // The only way the design loses rank on finite data is an exactly deterministic series
     // (a straight line with "ct", or changes that repeat exactly).
-    throw new InputError(
-      "CONSTANT_SERIES",
-      `${what} cannot be run: the series moves in an exact pattern (for example a straight line), so there is nothing random to test.`,
-    );
+    throw exactPatternError(what);
   }
+}
+
+/**
+ * The candidate fits p = 0 … maxLag on the common sample: each design is the leading
+ * nd + 1 + p columns of the maxLag design on the same rows, so one QR factor of that design
+ * gives every candidate exactly as its own fit would (QrFactor.leadingFits), SSR, coefficients
+ * and the last coefficient's standard error, without per-candidate inference. fits[p] is lag p.
+ */
+function candidateFits(y: Float64Array, d: Float64Array, maxLag: number, rows: number, regression: UnitRootCase, what: string): LeadingFit[] {
+  const { X, dep } = design(y, d, maxLag, rows, regression);
+  let all: LeadingFit[];
+  try {
+    all = qrFactor(X).leadingFits(dep);
+  } catch {
+    // A leading block loses rank exactly when the whole design does, so this is the case in
+    // which some candidate's own fit would have failed.
+    throw exactPatternError(what);
+  }
+  return all.slice(deterministicCount(regression));
 }
 
 /** ADF verdict sentence at `level`. */
@@ -174,22 +189,22 @@ function detrendedLevelSumSquares(y: Float64Array, start: number, rows: number, 
 /** Chooses p on the common sample of the last n − 1 − maxLag differences. */
 function chooseLag(y: Float64Array, d: Float64Array, maxLag: number, rule: LagRule, regression: UnitRootCase, what: string): number {
   const rows = d.length - maxLag;
+  const fits = candidateFits(y, d, maxLag, rows, regression, what);
   if (rule === "tstat") {
     // Start from maxLag and drop the last lag while |t| < threshold; p = 0 if none is kept.
     for (let p = maxLag; p >= 1; p--) {
-      const { X, dep } = design(y, d, p, rows, regression);
-      const r = fit(X, dep, what);
-      if (Math.abs(r.tStat[r.k - 1]) >= TSTAT_THRESHOLD) return p;
+      const f = fits[p];
+      if (Math.abs(f.coef[f.k - 1] / f.lastSe) >= TSTAT_THRESHOLD) return p;
     }
     return 0;
   }
   // Only the modified AIC needs Σ ỹ²_{t−1}; the lagged levels are the same rows for every p.
   const sumY2 = rule === "maic" ? detrendedLevelSumSquares(y, d.length - rows, rows, regression) : 0;
+  const levelCol = deterministicCount(regression);
   let best = 0;
   let bestIc = Infinity;
   for (let p = 0; p <= maxLag; p++) {
-    const { X, dep, levelCol } = design(y, d, p, rows, regression);
-    const r = fit(X, dep, what);
+    const r = fits[p];
     let ic: number;
     if (rule === "maic") {
       // Ng & Perron (2001): MAIC(k) = ln σ̂²_k + 2(τ_T(k) + k)/(T − kmax), with
@@ -199,7 +214,8 @@ function chooseLag(y: Float64Array, d: Float64Array, maxLag: number, rule: LagRu
       const tau = (b0 * b0 * sumY2) / s2;
       ic = Math.log(s2) + (2 * (tau + p)) / rows;
     } else {
-      ic = rule === "aic" ? r.aic : r.bic;
+      const criteria = gaussianCriteria(r.ssr, rows, r.k);
+      ic = rule === "aic" ? criteria.aic : criteria.bic;
     }
     if (ic < bestIc) {
       // Strictly smaller: ties go to the shorter lag.

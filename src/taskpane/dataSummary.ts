@@ -1,7 +1,7 @@
 /**
  * The Data section's model: the blocks read from the selection go through the core intake
  * (readWeekly), and the pane shows the core's own Data table (describeData), the same table
- * the functions and the batch runner render. No Office.js and no DOM here.
+ * the functions and the batch runner render. No host calls and no DOM here.
  */
 import { describeData } from "../core/analysis";
 import type { ReportTable } from "../core/report";

@@ -1,5 +1,5 @@
 /**
- * The Fairlead pane: wires the page to the Data section. Office.js calls live in excel/;
+ * The Fairlead pane: wires the page to the Data section. every call into the host lives in excel/;
  * what the cells mean is decided by the core intake (through dataSummary.ts).
  */
 import type { Cell } from "../core/report";

@@ -133,7 +133,7 @@ export type DateCell =
   | { kind: "invalid"; reason: string };
 
 /**
- * Reads one date cell as it reaches Office.js code or the batch reader: a serial number,
+ * Reads one date cell as the sheet hands it over (Range.values, a worksheet-function argument) or the batch reader reads it: a serial number,
  * ISO text, or a JS Date (read by its UTC calendar day). Blanks are "", whitespace-only
  * text, null and undefined. Anything else is not a date. Serials count in `dateSystem`.
  */

@@ -1,5 +1,5 @@
 /**
- * One rate cell, as it reaches our code from Office.js (Range.values, custom-function
+ * One rate cell, as the sheet hands it over (Range.values, custom-function
  * arguments) or from the batch reader, turned into a number, a blank (null) or an
  * InputError. The accepted text forms are what desks paste from e-mails and web pages:
  * thousands separators, one currency sign or code (CURRENCY_CODES) before or after the

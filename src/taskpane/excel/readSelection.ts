@@ -11,6 +11,7 @@
  * Office.js calls only; what the cells mean is decided by the core intake (readWeekly).
  */
 import { InputError } from "../../core/series/errors";
+import { isBlankCell } from "../../core/series/cells";
 import { readDateCell } from "../../core/series/excelDate";
 
 /** The blocks read from the workbook, as Range.values gives them. */
@@ -58,10 +59,6 @@ function isDateCell(value: unknown, format: unknown): boolean {
   return readDateCell(value).kind === "date";
 }
 
-function isBlank(value: unknown): boolean {
-  return value === null || value === undefined || (typeof value === "string" && value.trim() === "");
-}
-
 /**
  * True when a column holds dates: at least one date, and every other non-blank cell is a
  * date too, except a text header in the first row.
@@ -70,7 +67,7 @@ export function holdsDates(values: unknown[][], formats: unknown[][]): boolean {
   let dates = 0;
   for (let r = 0; r < values.length; r++) {
     const v = values[r]?.[0];
-    if (isBlank(v)) continue;
+    if (isBlankCell(v)) continue;
     if (isDateCell(v, formats[r]?.[0])) {
       dates++;
       continue;

@@ -12,6 +12,8 @@
  */
 import { chi2Sf } from "../../math/distributions";
 import { InputError } from "../../series/errors";
+import { acfOf } from "../residuals/acf";
+import { cumulativeQ } from "../residuals/ljungBox";
 import type { TestResult } from "../types";
 import { ArOrderOptions, fitAr, nonlinearityVerdict, orderParameters, prepareSeries, PreparedSeries } from "./arOrder";
 
@@ -24,33 +26,26 @@ export function defaultMcLeodLiLags(residualCount: number): number {
   return Math.max(1, Math.min(20, Math.floor(residualCount / 4)));
 }
 
-/** Q and its χ²(L) p-value for the squared values of the residuals a. */
+/**
+ * Q and its χ²(L) p-value for the squared values of the residuals a: the Ljung–Box sum of
+ * the residual checks (acfOf, cumulativeQ) applied to â_t², as McLeod & Li define it.
+ */
 export function squaredAutocorrelationQ(a: Float64Array, L: number): { q: number; pValue: number; acf: Float64Array } {
   const N = a.length;
+  const sq = Float64Array.from(a, (v) => v * v);
   let s2 = 0;
-  for (let t = 0; t < N; t++) s2 += a[t] * a[t];
+  for (let t = 0; t < N; t++) s2 += sq[t];
   s2 /= N;
-  const c = new Float64Array(N);
   let c0 = 0;
-  for (let t = 0; t < N; t++) {
-    c[t] = a[t] * a[t] - s2;
-    c0 += c[t] * c[t];
-  }
+  for (let t = 0; t < N; t++) c0 += (sq[t] - s2) * (sq[t] - s2);
   // Every squared residual equal (e.g. residuals of ±σ only): the squares carry no
   // variation, the autocorrelations are undefined, and the test has nothing to say.
   if (!(c0 > 1e-24 * Math.max(1, s2 * s2 * N))) {
     throw new Error("McLeod–Li: the squared residuals do not vary");
   }
-  const acf = new Float64Array(L);
-  let q = 0;
-  for (let k = 1; k <= L; k++) {
-    let s = 0;
-    for (let t = k; t < N; t++) s += c[t] * c[t - k];
-    acf[k - 1] = s / c0;
-    q += (acf[k - 1] * acf[k - 1]) / (N - k);
-  }
-  q *= N * (N + 2);
-  return { q, pValue: chi2Sf(q, L), acf };
+  const r = acfOf(sq, L);
+  const q = cumulativeQ(r, N, L)[L - 1];
+  return { q, pValue: chi2Sf(q, L), acf: r.slice(1) };
 }
 
 export function mcleodLiPrepared(prep: PreparedSeries, options: Pick<McLeodLiOptions, "lags"> = {}): TestResult {

@@ -85,7 +85,7 @@ function resolve(y: ArrayLike<number>, options: LjungBoxOptions): { x: Float64Ar
 }
 
 /** Q(1..m) accumulated from the autocorrelations, Ljung & Box (1978). */
-function cumulativeQ(r: Float64Array, n: number, m: number): Float64Array {
+export function cumulativeQ(r: Float64Array, n: number, m: number): Float64Array {
   const q = new Float64Array(m);
   let s = 0;
   for (let k = 1; k <= m; k++) {

@@ -13,7 +13,7 @@ import { readWeekly } from "../src/core/series/intake";
 import { analyse } from "../src/core/analysis";
 import { runChecks } from "../src/core/diagnostics/battery";
 import { unitRootSummary } from "../src/core/diagnostics/unitroot";
-import { seasonalitySummary, stl } from "../src/core/diagnostics/seasonality";
+import { clearNoiseBaselineCache, seasonalitySummary, stl } from "../src/core/diagnostics/seasonality";
 import { nonlinearitySummary } from "../src/core/diagnostics/nonlinearity";
 import { residualChecks } from "../src/core/diagnostics/residuals";
 
@@ -125,13 +125,27 @@ runCase({
     warnings: [],
   };
   const fit = lastYear.fit(z);
+  const model = { residuals: fit.residuals, armaDf: 0, label: "lastyear" };
+  // Cold: a new length (next week's paste) pays for the seasonal-strength noise baseline.
   runCase({
-    name: "diagnostics.runChecks (all sections)",
+    name: "diagnostics.runChecks (all sections, cold)",
     n,
-    setup: () => () => runChecks(series, { residuals: fit.residuals, armaDf: 0, label: "lastyear" }),
+    setup: () => () => {
+      clearNoiseBaselineCache();
+      return runChecks(series, model);
+    },
   });
+  // Warm: the same length again (a recalculation, or another lane of the same length).
+  runCase({ name: "diagnostics.runChecks (all sections, baseline memo warm)", n, setup: () => () => runChecks(series, model) });
   runCase({ name: "diagnostics.unitRootSummary", n, setup: () => () => unitRootSummary(z) });
-  runCase({ name: "diagnostics.seasonalitySummary", n, setup: () => () => seasonalitySummary(series) });
+  runCase({
+    name: "diagnostics.seasonalitySummary (cold)",
+    n,
+    setup: () => () => {
+      clearNoiseBaselineCache();
+      return seasonalitySummary(series);
+    },
+  });
   runCase({ name: "diagnostics.stl (period 52)", n, setup: () => () => stl(Float64Array.from(z, Math.log), { period: 52 }) });
   runCase({ name: "diagnostics.nonlinearitySummary", n, setup: () => () => nonlinearitySummary(z) });
   runCase({ name: "diagnostics.residualChecks", n, setup: () => () => residualChecks(fit.residuals) });

@@ -16,7 +16,7 @@ export { loessAt, loessSmooth } from "./loess";
 export type { StlOptions, StlResult, StlSettings } from "./stl";
 export { DEFAULT_SEASONAL_WINDOW, robustnessWeights, smallestOddAtLeast, stl, stlMinLength, stlSettings } from "./stl";
 export type { Components, StrengthResult } from "./strength";
-export { BASELINE_REPLICATIONS, STRONG_STRENGTH, WEAK_STRENGTH, noiseBaseline, stlStrength, strengthTable } from "./strength";
+export { BASELINE_REPLICATIONS, STRONG_STRENGTH, WEAK_STRENGTH, clearNoiseBaselineCache, noiseBaseline, stlStrength, strengthTable } from "./strength";
 export type { FactorKind, WeekFactorOptions, WeekFactors } from "./factors";
 export { factorTable, factorsFromSeasonal, logRates, weekFactors, weekFactorsFrom } from "./factors";
 export type { WeekBin } from "./weekYear";

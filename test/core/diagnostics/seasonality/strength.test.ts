@@ -99,3 +99,26 @@ describe("seasonal and trend strength", () => {
     expect(stlStrength({ trend: new Float64Array(5), seasonal: h, remainder: r }).seasonal).toBe(0);
   });
 });
+
+describe("noise baseline memo", () => {
+  test("a repeat call returns the same number without decomposing again; a cleared memo recomputes it identically", () => {
+    const stlModule = jest.requireActual("../../../../src/core/diagnostics/seasonality/stl") as typeof import("../../../../src/core/diagnostics/seasonality/stl");
+    const { clearNoiseBaselineCache, noiseBaseline: baseline, BASELINE_REPLICATIONS: R } = jest.requireActual(
+      "../../../../src/core/diagnostics/seasonality/strength",
+    ) as typeof import("../../../../src/core/diagnostics/seasonality/strength");
+    const spy = jest.spyOn(stlModule, "stl");
+    try {
+      clearNoiseBaselineCache();
+      const first = baseline(300);
+      expect(spy).toHaveBeenCalledTimes(R);
+      expect(baseline(300)).toBe(first);
+      expect(spy).toHaveBeenCalledTimes(R); // served from the memo
+      baseline(301);
+      expect(spy).toHaveBeenCalledTimes(2 * R); // another length is another key
+      clearNoiseBaselineCache();
+      expect(baseline(300)).toBe(first); // deterministic: recomputed bit for bit
+    } finally {
+      spy.mockRestore();
+    }
+  });
+});

@@ -1,5 +1,6 @@
 /** A check on the first rate read: is it on the scale of the rates after it? */
 import { Locator, capitalise, positionName, weeksWord } from "./wording";
+import { median as medianOf } from "../math/median";
 
 /** Factor beyond which the first rate is called out of scale with the ones after it. */
 const OUT_OF_SCALE = 5;
@@ -20,9 +21,9 @@ export function firstValueOutOfScale(
   const observed = rows.filter((r) => r.value !== null) as { at: number; value: number }[];
   if (observed.length < 4) return undefined;
   const head = observed[0];
-  const next = observed.slice(1, 1 + SCALE_WINDOW).map((r) => r.value).sort((a, b) => a - b);
+  const next = observed.slice(1, 1 + SCALE_WINDOW).map((r) => r.value);
   const m = next.length;
-  const median = m % 2 === 1 ? next[(m - 1) / 2] : (next[m / 2 - 1] + next[m / 2]) / 2;
+  const median = medianOf(next);
   if (!(median > 0)) return undefined;
   if (head.value >= median / OUT_OF_SCALE && head.value <= median * OUT_OF_SCALE) return undefined;
   return (

@@ -11,6 +11,7 @@ import { WEEKS_PER_YEAR } from "../../series/calendar";
 import { InputError } from "../../series/errors";
 import { checkSeries } from "../input";
 import { loessAt, loessSmooth } from "./loess";
+import { median } from "../../math/median";
 
 export interface StlOptions {
   /** n_p, observations per cycle. Default 52 (DESIGN.md, "Periods"). */
@@ -238,14 +239,6 @@ function innerPass(
   }
   // Step 6, trend smoothing: loess with q = n_t on the deseasonalised series.
   loessSmooth(w.deseason, n, s.trend, s.trendDegree, s.trendJump, rw, trend);
-}
-
-/** Median of x (mean of the two middle values when the length is even). */
-function median(x: Float64Array): number {
-  const sorted = Float64Array.from(x).sort();
-  const m = sorted.length;
-  const h = m >> 1;
-  return m % 2 === 1 ? sorted[h] : 0.5 * (sorted[h - 1] + sorted[h]);
 }
 
 /**

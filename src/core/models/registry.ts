@@ -5,12 +5,14 @@
  */
 import { InputError } from "../series/errors";
 import { drift, lastWeek, lastYear } from "./naive";
+import { sarima } from "./sarima";
 import type { MethodCode, ModelSpec } from "./types";
 
 const MODELS: Partial<Record<MethodCode, ModelSpec>> = {
   lastweek: lastWeek,
   lastyear: lastYear,
   drift: drift,
+  sarima: sarima as ModelSpec,
 };
 
 export function availableMethods(): MethodCode[] {

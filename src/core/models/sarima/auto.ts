@@ -140,6 +140,15 @@ export function autoSarima(y: Float64Array, options: SarimaOptions = {}): Sarima
   if (n < sarimaMinLength(options)) {
     throw new InputError("TOO_FEW_POINTS", `SARIMA needs at least ${sarimaMinLength(options)} weeks of rates here; the series has ${n}.`);
   }
+  for (let t = 0; t < n; t++) {
+    if (!Number.isFinite(y[t])) throw new InputError("NOT_A_NUMBER", `SARIMA needs a number in every week; week ${t + 1} has none.`);
+  }
+  if (options.lambda !== undefined && options.lambda !== null) {
+    const bad = y.findIndex((v) => !(v > 0));
+    if (bad >= 0) {
+      throw new InputError("NON_POSITIVE", `A Box-Cox transform needs rates above zero; week ${bad + 1} has ${y[bad]}.`);
+    }
+  }
   const lambda = resolveLambda(y, options.lambda);
   const z = lambda === null ? Float64Array.from(y) : boxCoxTransform(y, lambda);
   let mode = options.seasonality ?? "auto";

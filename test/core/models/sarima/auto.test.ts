@@ -149,6 +149,8 @@ describe("Box-Cox and options", () => {
     expectInputError(() => autoSarima(y.subarray(0, 10)), "TOO_FEW_POINTS", /at least 20 weeks/);
     expectInputError(() => autoSarima(y, { structure: { d: 2 }, constant: true }), "BAD_OPTION", /polynomial trend/);
     expectInputError(() => autoSarima(y, { fitBudget: 0 }), "BAD_OPTION", /budget/);
+    expectInputError(() => autoSarima(Float64Array.of(...y.subarray(0, 40), -1), { lambda: 0 }), "NON_POSITIVE", /week 41/);
+    expectInputError(() => autoSarima(Float64Array.of(...y.subarray(0, 40), NaN)), "NOT_A_NUMBER", /week 41/);
   });
 
   test("the registry offers sarima", () => {

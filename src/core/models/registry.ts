@@ -5,6 +5,7 @@
  */
 import { InputError } from "../series/errors";
 import { drift, lastWeek, lastYear } from "./naive";
+import { nnar } from "./nnar";
 import { sarima } from "./sarima";
 import type { MethodCode, ModelSpec } from "./types";
 
@@ -13,6 +14,7 @@ const MODELS: Partial<Record<MethodCode, ModelSpec>> = {
   lastyear: lastYear,
   drift: drift,
   sarima: sarima as ModelSpec,
+  nnar: nnar as ModelSpec,
 };
 
 export function availableMethods(): MethodCode[] {

@@ -309,7 +309,6 @@ export class SarimaFitted implements Fitted {
     );
     parameters.push({ name: "sigma2", value: this.sigma2 });
     parameters.push({ name: "log-likelihood", value: this.logLik });
-    parameters.push({ name: "AICc", value: this.aicc });
     const parts = [orderLabel(spec)];
     if (spec.constant) parts.push(spec.d + spec.D === 0 ? "with mean" : "with drift");
     if (spec.fourier > 0) parts.push(`+ ${spec.fourier} Fourier pair${spec.fourier > 1 ? "s" : ""} (period ${spec.fourierPeriod.toFixed(2)} weeks)`);

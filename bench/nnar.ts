@@ -7,23 +7,12 @@
  * work's CPU time (process.cpuUsage, user + system), which other load on the cores disturbs less.
  */
 import { consumed, runCase } from "./harness";
-import { MersenneTwister } from "../src/core/math/rng";
+import { syntheticRates } from "./synthetic";
 import { fitNnar } from "../src/core/models/nnar";
 
 const N = 470;
 const RUNS = 7;
 
-/** Log-random-walk level with a yearly cycle and noise, the shape of a freight index. */
-function syntheticRates(n: number, seed: number): Float64Array {
-  const rng = new MersenneTwister(seed);
-  const y = new Float64Array(n);
-  let level = 1500;
-  for (let t = 0; t < n; t++) {
-    level *= Math.exp(0.004 * rng.normal());
-    y[t] = level * (1 + 0.08 * Math.sin((2 * Math.PI * t) / (365.25 / 7))) * Math.exp(0.02 * rng.normal());
-  }
-  return y;
-}
 
 let keep: unknown;
 

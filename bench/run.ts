@@ -3,6 +3,7 @@
  * Sizes are those a desk meets: 14 years of weekly rates (≈ 730 weeks), regressions with a
  * few dozen columns (Fourier pairs, calendar dummies), optimisers over 5–20 parameters.
  */
+import { syntheticRates } from "./synthetic";
 import { runCase } from "./harness";
 import { MersenneTwister } from "../src/core/math/rng";
 import { ols } from "../src/core/math/ols";
@@ -19,16 +20,6 @@ import { residualChecks } from "../src/core/diagnostics/residuals";
 
 const WEEKS = 730;
 
-function syntheticRates(n: number, seed: number): Float64Array {
-  const rng = new MersenneTwister(seed);
-  const y = new Float64Array(n);
-  let level = 1500;
-  for (let t = 0; t < n; t++) {
-    level *= Math.exp(0.004 * rng.normal());
-    y[t] = level * (1 + 0.08 * Math.sin((2 * Math.PI * t) / (365.25 / 7))) * Math.exp(0.02 * rng.normal());
-  }
-  return y;
-}
 
 function rosenbrock(x: Float64Array): number {
   let s = 0;

@@ -13,6 +13,7 @@
 import { normalMultiplier } from "../math/distributions";
 import type { Rng } from "../math/rng";
 import { WEEKS_PER_YEAR } from "../series/calendar";
+import { appendWeeks } from "./append";
 import type { FitSummary, Fitted, Forecast, MethodCode, ModelSpec, ParameterRow, UpdateOptions } from "./types";
 
 type Kind = "lastweek" | "lastyear" | "drift";
@@ -127,9 +128,7 @@ class BaselineFit implements Fitted {
   }
 
   update(newY: Float64Array, options: UpdateOptions): Fitted {
-    const y = new Float64Array(this.n + newY.length);
-    y.set(this.y);
-    y.set(newY, this.n);
+    const y = appendWeeks(this.y, newY, "The baseline");
     return new BaselineFit(this.kind, y, options.reestimate ? estimate(this.kind, y) : this.p);
   }
 

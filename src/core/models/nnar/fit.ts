@@ -13,6 +13,7 @@
  */
 import { MersenneTwister, Rng } from "../../math/rng";
 import { InputError } from "../../series/errors";
+import { appendWeeks } from "../append";
 import type { FitSummary, Fitted, Forecast, MethodCode, ModelSpec, UpdateOptions } from "../types";
 import {
   Ensemble,
@@ -148,16 +149,9 @@ class NnarFit implements Fitted {
   }
 
   update(newY: Float64Array, options: UpdateOptions): NnarFit {
-    for (let i = 0; i < newY.length; i++) {
-      if (!Number.isFinite(newY[i])) {
-        throw new InputError("NOT_A_NUMBER", `NNAR needs finite rates; new week ${i + 1} is ${newY[i]}.`);
-      }
-    }
     const { settings, scaling } = this.s;
-    const n = this.n + newY.length;
-    const y = new Float64Array(n);
-    y.set(this.s.y);
-    y.set(newY, this.n);
+    const y = appendWeeks(this.s.y, newY, "NNAR");
+    const n = y.length;
     const x = new Float64Array(n);
     x.set(this.s.x);
     x.set(toTransformed(newY, settings.lambda), this.n);

@@ -16,6 +16,7 @@
 import { boxCoxInverse, boxCoxMeanBiasAdjusted, boxCoxTransform } from "../../math/boxcox";
 import { normalMultiplier } from "../../math/distributions";
 import type { Rng } from "../../math/rng";
+import { appendWeeks } from "../append";
 import type { FitSummary, Fitted, Forecast, ParameterRow, UpdateOptions } from "../types";
 import { aiccOf, estimate, evaluate, prepare, unconstrainedFrom, type ArmaCoefficients, type Estimate, type Prepared } from "./estimate";
 import { adjustedInnovation, armaFilter, logLikAtSigma2 } from "./filter";
@@ -219,9 +220,7 @@ export class SarimaFitted implements Fitted {
   }
 
   update(newY: Float64Array, options: UpdateOptions): Fitted {
-    const y = new Float64Array(this.n + newY.length);
-    y.set(this.y);
-    y.set(newY, this.n);
+    const y = appendWeeks(this.y, newY, "SARIMA");
     const spec = this.spec;
     const z = spec.lambda === null ? Float64Array.from(y) : boxCoxTransform(y, spec.lambda);
     const prep = prepare(z, spec);

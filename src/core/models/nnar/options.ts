@@ -42,11 +42,11 @@ export type NnarOptions = {
   /** Seasonal lags 52, 104, …, 52·P. Default 1 with ≥ 130 weeks, else 0. */
   P?: number;
   /** Hidden units k. Default round((p + P + 1)/2). */
-  size?: number;
+  hiddenUnits?: number;
   /** Networks averaged. Default 20. */
-  repeats?: number;
+  networks?: number;
   /** Weight decay on connection weights. Default 1e-3. */
-  decay?: number;
+  weightDecay?: number;
   /** Box-Cox λ in [−1, 2], "auto" for Guerrero's choice (period 52), null (default) for none. */
   lambda?: number | "auto" | null;
   /** Seed of every random draw (starting weights, interval paths). Default 20260101. */
@@ -57,7 +57,7 @@ export type NnarOptions = {
   paths?: number;
 };
 
-const KNOWN = new Set(["p", "P", "size", "repeats", "decay", "lambda", "seed", "maxIter", "paths"]);
+const KNOWN = new Set(["p", "P", "hiddenUnits", "networks", "weightDecay", "lambda", "seed", "maxIter", "paths"]);
 
 /** Options after their checks; p, P and size stay undefined until the data decide them. */
 export interface CheckedOptions {
@@ -95,14 +95,14 @@ export function checkOptions(options: NnarOptions = {}): CheckedOptions {
   const p = o.p === undefined ? undefined : whole(o.p, 0, 520, "number of recent weeks fed to the network (p)");
   const P = o.P === undefined ? undefined : whole(o.P, 0, 5, "number of seasonal lags (P)");
   if (p === 0 && P === 0) throw bad("The network needs at least one input: p and P cannot both be 0.");
-  const size = o.size === undefined ? undefined : whole(o.size, 1, 100, "number of hidden units (size)");
-  const repeats = o.repeats === undefined ? DEFAULT_REPEATS : whole(o.repeats, 1, 1000, "number of networks (repeats)");
+  const size = o.hiddenUnits === undefined ? undefined : whole(o.hiddenUnits, 1, 100, "number of hidden units (hiddenUnits)");
+  const repeats = o.networks === undefined ? DEFAULT_REPEATS : whole(o.networks, 1, 1000, "number of networks (networks)");
   let decay = DEFAULT_DECAY;
-  if (o.decay !== undefined) {
-    if (typeof o.decay !== "number" || !Number.isFinite(o.decay) || o.decay < 0) {
-      throw bad(`The weight decay must be a number of at least 0, such as 0.001; got ${String(o.decay)}.`);
+  if (o.weightDecay !== undefined) {
+    if (typeof o.weightDecay !== "number" || !Number.isFinite(o.weightDecay) || o.weightDecay < 0) {
+      throw bad(`The weight decay must be a number of at least 0, such as 0.001; got ${String(o.weightDecay)}.`);
     }
-    decay = o.decay;
+    decay = o.weightDecay;
   }
   let lambda: number | "auto" | null = null;
   if (o.lambda !== undefined && o.lambda !== null) {

@@ -36,7 +36,7 @@ test("80% and 95% intervals cover close to nominal on a simulated AR(1), steps 1
     const z = y.slice(burn);
     // Few networks and a short optimisation keep 300 fits to a second or two; a linear AR(1)
     // needs no more.
-    const fc = fitNnar(z, { p: 1, P: 0, repeats: 3, maxIter: 50, paths: 400, seed: r }).forecast(4, [80, 95]);
+    const fc = fitNnar(z, { p: 1, P: 0, networks: 3, maxIter: 50, paths: 400, seed: r }).forecast(4, [80, 95]);
     steps.forEach((h, k) => {
       const mu = phi ** h * z[n - 1];
       let v = 0;

@@ -34,7 +34,7 @@ function bits(a: Float64Array): string {
 
 const Y = rates(160, 3);
 // Few networks keep this file quick; the behaviour under test does not depend on the count.
-const QUICK = { repeats: 4, paths: 300 };
+const QUICK = { networks: 4, paths: 300 };
 
 describe("NNAR reproducibility", () => {
   test("the same inputs and seed give the same numbers bit for bit; another seed does not", () => {
@@ -167,10 +167,10 @@ describe("NNAR option and input checks", () => {
     expectInputError(() => fitNnar(y, { p: 1.5 }), "BAD_OPTION", /whole number/);
     expectInputError(() => fitNnar(y, { P: 9 }), "BAD_OPTION", /seasonal lags/);
     expectInputError(() => fitNnar(y, { p: 0, P: 0 }), "BAD_OPTION", /at least one input/);
-    expectInputError(() => fitNnar(y, { size: 0 }), "BAD_OPTION", /hidden units/);
-    expectInputError(() => fitNnar(y, { repeats: 0 }), "BAD_OPTION", /networks/);
-    expectInputError(() => fitNnar(y, { decay: -1 }), "BAD_OPTION", /weight decay/);
-    expectInputError(() => fitNnar(y, { decay: NaN }), "BAD_OPTION", /weight decay/);
+    expectInputError(() => fitNnar(y, { hiddenUnits: 0 }), "BAD_OPTION", /hidden units/);
+    expectInputError(() => fitNnar(y, { networks: 0 }), "BAD_OPTION", /networks/);
+    expectInputError(() => fitNnar(y, { weightDecay: -1 }), "BAD_OPTION", /weight decay/);
+    expectInputError(() => fitNnar(y, { weightDecay: NaN }), "BAD_OPTION", /weight decay/);
     expectInputError(() => fitNnar(y, { lambda: 5 }), "BAD_OPTION", /Box-Cox/);
     expectInputError(() => fitNnar(y, { seed: -1 }), "BAD_OPTION", /seed/);
     expectInputError(() => fitNnar(y, { maxIter: 0 }), "BAD_OPTION", /iteration/);
@@ -190,8 +190,8 @@ describe("NNAR option and input checks", () => {
     expect(asRegistered.minLength()).toBe(21);
     for (const o of [{}, { P: 1 }, { p: 3 }]) {
       const m = nnar.minLength(o);
-      expect(() => fitNnar(Y.subarray(0, m), { ...o, repeats: 2 })).not.toThrow();
-      expectInputError(() => fitNnar(Y.subarray(0, m - 1), { ...o, repeats: 2 }), "TOO_FEW_POINTS", new RegExp(`at least ${m} weeks`));
+      expect(() => fitNnar(Y.subarray(0, m), { ...o, networks: 2 })).not.toThrow();
+      expectInputError(() => fitNnar(Y.subarray(0, m - 1), { ...o, networks: 2 }), "TOO_FEW_POINTS", new RegExp(`at least ${m} weeks`));
     }
   });
 
@@ -250,7 +250,7 @@ describe("NNAR update()", () => {
     // Trained to convergence, each network sits at a stationary point of its penalised error;
     // retraining on the same weeks from there must stay put, where a restart from fresh
     // weights would not.
-    const small = { p: 1, P: 0, size: 2, repeats: 2, maxIter: 5000 };
+    const small = { p: 1, P: 0, hiddenUnits: 2, networks: 2, maxIter: 5000 };
     const conv = fitNnar(base.subarray(0, 120), small);
     expect(conv.summary().notes.join(" ")).not.toMatch(/iteration limit/);
     const again = conv.update(new Float64Array(0), { reestimate: true });

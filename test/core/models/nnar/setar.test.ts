@@ -26,7 +26,7 @@ test("NNAR(1,0,3) beats a least-squares AR(1) out of sample on a SETAR process",
   const y = setar(n, 1);
   // One-step forecasts over the 200-week holdout with the weights fixed at the training fit:
   // update(…, reestimate false) filters the new weeks, and its residuals there are the errors.
-  const fit = fitNnar(y.subarray(0, nTrain), { p: 1, P: 0, size: 3 });
+  const fit = fitNnar(y.subarray(0, nTrain), { p: 1, P: 0, hiddenUnits: 3 });
   const ext = fit.update(y.slice(nTrain), { reestimate: false });
 
   // Linear AR(1) with a constant by OLS on the same training weeks.

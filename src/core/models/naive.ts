@@ -13,7 +13,7 @@
 import { normalMultiplier } from "../math/distributions";
 import type { Rng } from "../math/rng";
 import { WEEKS_PER_YEAR } from "../series/calendar";
-import { appendWeeks } from "./append";
+import { appendWeeks, checkHorizon, checkLevels } from "./arguments";
 import type { FitSummary, Fitted, Forecast, MethodCode, ModelSpec, ParameterRow, UpdateOptions } from "./types";
 
 type Kind = "lastweek" | "lastyear" | "drift";
@@ -39,10 +39,6 @@ function estimate(kind: Kind, y: Float64Array): BaselineParams {
   }
   const dof = m - (kind === "drift" ? 1 : 0);
   return { lag, drift, sigma2: ss / dof, m };
-}
-
-function checkHorizon(h: number): void {
-  if (!Number.isInteger(h) || h < 1) throw new RangeError(`horizon must be a whole number of weeks ≥ 1, got ${h}`);
 }
 
 class BaselineFit implements Fitted {
@@ -93,6 +89,7 @@ class BaselineFit implements Fitted {
 
   forecast(h: number, levels: number[]): Forecast {
     checkHorizon(h);
+    checkLevels(levels);
     const z = levels.map(normalMultiplier);
     const point = new Float64Array(h);
     const lower = levels.map(() => new Float64Array(h));

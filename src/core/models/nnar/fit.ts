@@ -13,7 +13,7 @@
  */
 import { MersenneTwister, Rng } from "../../math/rng";
 import { InputError } from "../../series/errors";
-import { appendWeeks } from "../append";
+import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
 import type { FitSummary, Fitted, Forecast, MethodCode, ModelSpec, UpdateOptions } from "../types";
 import {
   Ensemble,
@@ -29,20 +29,6 @@ import {
 import { weightCount } from "./network";
 import { NnarOptions, SEASON, minLength } from "./options";
 import { NnarSettings, Scaling, buildDesign, resolve, scaled, toDataScale, toTransformed } from "./settings";
-
-function checkHorizon(h: number): void {
-  if (!Number.isInteger(h) || h < 1) {
-    throw new InputError("BAD_OPTION", `The forecast horizon must be a whole number of weeks of at least 1; got ${h}.`);
-  }
-}
-
-function checkLevels(levels: number[]): void {
-  for (const l of levels) {
-    if (!(typeof l === "number" && l > 0 && l < 100)) {
-      throw new InputError("BAD_OPTION", `Each interval coverage must be a percentage between 0 and 100, such as 80 or 95; got ${l}.`);
-    }
-  }
-}
 
 /** "1–11 and 52", "1, 2 and 52, 104": runs of consecutive lags as ranges. */
 function describeLags(lags: number[]): string {

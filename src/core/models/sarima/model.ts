@@ -16,7 +16,7 @@
 import { boxCoxInverse, boxCoxMeanBiasAdjusted, boxCoxTransform } from "../../math/boxcox";
 import { normalMultiplier } from "../../math/distributions";
 import type { Rng } from "../../math/rng";
-import { appendWeeks } from "../append";
+import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
 import type { FitSummary, Fitted, Forecast, ParameterRow, UpdateOptions } from "../types";
 import { aiccOf, estimate, evaluate, prepare, unconstrainedFrom, type ArmaCoefficients, type Estimate, type Prepared } from "./estimate";
 import { adjustedInnovation, armaFilter, logLikAtSigma2 } from "./filter";
@@ -175,6 +175,7 @@ export class SarimaFitted implements Fitted {
 
   forecast(h: number, levels: number[]): Forecast {
     checkHorizon(h);
+    checkLevels(levels);
     const { point, sd } = this.zForecast(h);
     const lambda = this.spec.lambda;
     const back = (z: number): number => (lambda === null ? z : boxCoxInverse(z, lambda));
@@ -325,10 +326,6 @@ export class SarimaFitted implements Fitted {
   candidates(): { structure: string; aicc: number }[] {
     return [...(this.options.candidates ?? [])].sort((a, b) => a.aicc - b.aicc);
   }
-}
-
-function checkHorizon(h: number): void {
-  if (!Number.isInteger(h) || h < 1) throw new RangeError(`horizon must be a whole number of weeks ≥ 1, got ${h}`);
 }
 
 /** Gauss–Jordan inverse of a small k×k matrix; RangeError when singular. */

@@ -64,6 +64,34 @@ export function numericalGradient(f: Objective, x: Float64Array, fx: number): Fl
   return g;
 }
 
+const FORWARD_STEP = Math.sqrt(Number.EPSILON);
+
+/**
+ * Forward-difference gradient (Nocedal & Wright, 2006, eq. 8.1): k evaluations instead of the
+ * 2k of central differences, with error O(h·|f″|) + O(ε|f|/h), about 1e-8 for unit curvature
+ * at h = √ε·max(|xᵢ|, 1): ample for a gradient tolerance of 1e-5 on an objective of order
+ * one. A step that leaves the finite region is taken backwards. Pass it as BfgsOptions.gradient when f is costly.
+ */
+export function forwardGradient(f: Objective, x: Float64Array): Float64Array {
+  const fx = f(x);
+  const g = new Float64Array(x.length);
+  const t = Float64Array.from(x);
+  for (let i = 0; i < x.length; i++) {
+    const h0 = FORWARD_STEP * Math.max(Math.abs(x[i]), 1);
+    t[i] = x[i] + h0;
+    const hp = t[i] - x[i];
+    let fp = f(t);
+    if (Number.isFinite(fp)) g[i] = (fp - fx) / hp;
+    else {
+      t[i] = x[i] - h0;
+      fp = f(t);
+      g[i] = (fx - fp) / (x[i] - t[i]);
+    }
+    t[i] = x[i];
+  }
+  return g;
+}
+
 function dot(a: Float64Array, b: Float64Array): number {
   let s = 0;
   for (let i = 0; i < a.length; i++) s += a[i] * b[i];

@@ -1,7 +1,7 @@
 /** Optimisers on ℝⁿ and the transforms that let them respect parameter bounds. */
 export { nelderMead } from "./nelderMead";
 export type { NelderMeadOptions, MinimiseResult, Objective } from "./nelderMead";
-export { bfgs, numericalGradient } from "./bfgs";
+export { bfgs, forwardGradient, numericalGradient } from "./bfgs";
 export type { BfgsOptions, BfgsResult } from "./bfgs";
 export {
   toBounded,

@@ -9,7 +9,7 @@
  * visits is admissible. It starts from the conditional-sum-of-squares estimate (Box, Jenkins
  * & Reinsel, §7.1.1) on the OLS-detrended series, as the usual "CSS, then ML" practice.
  */
-import { bfgs } from "../../math/optimise";
+import { bfgs, forwardGradient } from "../../math/optimise";
 import { ols } from "../../math/ols";
 import { armaFilter, glsLikelihood, interleave, logLikAtSigma2, type FilterOutput, type GlsLikelihood } from "./filter";
 import { constrainStationary, difference, differencingLags, expandAr, expandMa, unconstrainStationary } from "./polynomial";
@@ -174,33 +174,6 @@ function cssStart(prep: Prepared): { x: Float64Array; evaluations: number } {
  * differences the order search acts on.
  */
 const ML_GRADIENT_TOL = 1e-5;
-const FORWARD_STEP = Math.sqrt(Number.EPSILON);
-
-/**
- * Forward-difference gradient (Nocedal & Wright, 2006, eq. 8.1): k evaluations instead of the
- * 2k of central differences, with error O(h) + O(ε/h) ≈ 1e-8 at h = √ε·max(|xᵢ|, 1) — ample
- * for the tolerance above. A step that leaves the finite region is taken backwards.
- */
-function forwardGradient(f: (x: Float64Array) => number, x: Float64Array): Float64Array {
-  const fx = f(x);
-  const g = new Float64Array(x.length);
-  const t = Float64Array.from(x);
-  for (let i = 0; i < x.length; i++) {
-    const h0 = FORWARD_STEP * Math.max(Math.abs(x[i]), 1);
-    t[i] = x[i] + h0;
-    const hp = t[i] - x[i];
-    let fp = f(t);
-    if (Number.isFinite(fp)) g[i] = (fp - fx) / hp;
-    else {
-      t[i] = x[i] - h0;
-      fp = f(t);
-      g[i] = (fx - fp) / (x[i] - t[i]);
-    }
-    t[i] = x[i];
-  }
-  return g;
-}
-
 export interface FitControl {
   /** Unconstrained start (a previous optimum); skips the CSS step. */
   start?: Float64Array;

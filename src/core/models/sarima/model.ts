@@ -19,7 +19,7 @@ import type { Rng } from "../../math/rng";
 import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
 import type { FitSummary, Fitted, Forecast, ParameterRow, UpdateOptions } from "../types";
 import { aiccOf, estimate, evaluate, prepare, unconstrainedFrom, type ArmaCoefficients, type Estimate, type Prepared } from "./estimate";
-import { adjustedInnovation, armaFilter, logLikAtSigma2 } from "./filter";
+import { adjustedInnovation, armaFilter, logLikAtSigma2, symmetricInverse } from "./filter";
 import { expandAr, expandMa, multiplyAr, psiWeights } from "./polynomial";
 import { orderLabel, regressorColumns, validateSpec, type SarimaSpec } from "./spec";
 
@@ -43,6 +43,7 @@ export class SarimaFitted implements Fitted {
   readonly logLik: number;
   /** P_{n+1|n} of the ARMA state, computed on the first forecast. */
   private finalCovariance?: Float64Array;
+  private standardErrors?: Float64Array;
 
   constructor(
     readonly y: Float64Array,
@@ -99,10 +100,11 @@ export class SarimaFitted implements Fitted {
     }
     // Undo the differences on u = z − xβ, then add the regression back.
     const hist = new Float64Array(n + h);
-    const xRow = regressorColumns(prep.regressors, 0, n + h);
+    // Regressors of the fitted weeks are in prep; only the future rows are new.
+    const future = regressorColumns(prep.regressors, n, n + h);
     const xb = (t: number): number => {
       let s = 0;
-      for (let j = 0; j < kb; j++) s += beta[j] * xRow[j][t];
+      for (let j = 0; j < kb; j++) s += beta[j] * (t < n ? prep.levelX[j][t] : future[j][t - n]);
       return s;
     };
     for (let t = 0; t < n; t++) hist[t] = prep.z[t] - xb(t);
@@ -241,8 +243,13 @@ export class SarimaFitted implements Fitted {
     return new SarimaFitted(y, prep, est, this.options);
   }
 
-  /** Standard errors of the ARMA coefficients from a central-difference Hessian of −ℓ (β, σ² profiled). */
+  /** Standard errors of the ARMA coefficients from a central-difference Hessian of −ℓ (β, σ² profiled), computed once. */
   private coefficientErrors(): Float64Array {
+    if (!this.standardErrors) this.standardErrors = this.hessianErrors();
+    return this.standardErrors;
+  }
+
+  private hessianErrors(): Float64Array {
     const c = this.est.coefficients;
     const flat = [...c.ar, ...c.ma, ...c.sar, ...c.sma];
     const k = flat.length;
@@ -281,10 +288,11 @@ export class SarimaFitted implements Fitted {
       }
     }
     try {
-      const inv = invertSmall(H, k);
+      // At a maximum −ℓ's Hessian is positive definite; Cholesky refuses it otherwise.
+      const inv = symmetricInverse(H, k);
       for (let i = 0; i < k; i++) out[i] = inv[i * k + i] > 0 ? Math.sqrt(inv[i * k + i]) : NaN;
     } catch {
-      // A flat direction: the coefficients are reported without standard errors.
+      // A flat or curved-the-wrong-way direction: the coefficients are reported without standard errors.
     }
     return out;
   }
@@ -326,37 +334,6 @@ export class SarimaFitted implements Fitted {
   candidates(): { structure: string; aicc: number }[] {
     return [...(this.options.candidates ?? [])].sort((a, b) => a.aicc - b.aicc);
   }
-}
-
-/** Gauss–Jordan inverse of a small k×k matrix; RangeError when singular. */
-function invertSmall(A: Float64Array, k: number): Float64Array {
-  const a = Float64Array.from(A);
-  const inv = new Float64Array(k * k);
-  for (let i = 0; i < k; i++) inv[i * k + i] = 1;
-  for (let c = 0; c < k; c++) {
-    let piv = c;
-    for (let r = c + 1; r < k; r++) if (Math.abs(a[r * k + c]) > Math.abs(a[piv * k + c])) piv = r;
-    if (!(Math.abs(a[piv * k + c]) > 1e-12)) throw new RangeError("singular Hessian");
-    for (let j = 0; j < k; j++) {
-      [a[c * k + j], a[piv * k + j]] = [a[piv * k + j], a[c * k + j]];
-      [inv[c * k + j], inv[piv * k + j]] = [inv[piv * k + j], inv[c * k + j]];
-    }
-    const d = a[c * k + c];
-    for (let j = 0; j < k; j++) {
-      a[c * k + j] /= d;
-      inv[c * k + j] /= d;
-    }
-    for (let r = 0; r < k; r++) {
-      if (r === c) continue;
-      const f = a[r * k + c];
-      if (f === 0) continue;
-      for (let j = 0; j < k; j++) {
-        a[r * k + j] -= f * a[c * k + j];
-        inv[r * k + j] -= f * inv[c * k + j];
-      }
-    }
-  }
-  return inv;
 }
 
 /** Fit one given structure to rates y (positive where a Box-Cox λ is set). */

@@ -1,4 +1,4 @@
-import { bfgs, numericalGradient } from "../../../../src/core/math/optimise";
+import { bfgs, forwardGradient, numericalGradient } from "../../../../src/core/math/optimise";
 import { MersenneTwister } from "../../../../src/core/math/rng";
 import {
   countNonFinite, distanceFromOnes, logBarrier, logBarrierMin, rosenbrock, rosenbrockGradient,
@@ -89,5 +89,21 @@ describe("bfgs", () => {
     expect(r.converged).toBe(false);
     expect(r.message).toMatch(/starting point/);
     expect(r.evaluations).toBe(1);
+  });
+});
+
+describe("forward-difference gradient", () => {
+  test("matches the analytic gradient of the Rosenbrock function to O(√ε) (Nocedal & Wright, eq. 8.1)", () => {
+    const f = (x: Float64Array) => 100 * (x[1] - x[0] * x[0]) ** 2 + (1 - x[0]) ** 2;
+    const x = Float64Array.of(-1.2, 1);
+    const exact = [-400 * x[0] * (x[1] - x[0] * x[0]) - 2 * (1 - x[0]), 200 * (x[1] - x[0] * x[0])];
+    const g = forwardGradient(f, x);
+    // Truncation error ≈ h·|f''|/2 with h ≈ 1.5e-8 and |f''| ≤ 1400 here: about 1e-5.
+    for (let i = 0; i < 2; i++) expect(Math.abs(g[i] - exact[i])).toBeLessThan(3e-5);
+  });
+  test("steps backwards where the forward point is not finite", () => {
+    const f = (x: Float64Array) => (x[0] > 1 ? NaN : x[0] * x[0]);
+    const g = forwardGradient(f, Float64Array.of(1));
+    expect(g[0]).toBeCloseTo(2, 6);
   });
 });

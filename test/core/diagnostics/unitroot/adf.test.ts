@@ -2,6 +2,7 @@ import { adf, schwertLag, type LagRule } from "../../../../src/core/diagnostics/
 import type { UnitRootCase } from "../../../../src/core/diagnostics/unitroot/mackinnon";
 import { MersenneTwister } from "../../../../src/core/math/rng";
 import { loadFixture } from "../../../fixtures";
+import { randomWalk } from "../../../simulate";
 
 interface AdfCase {
   dataset: string;
@@ -107,24 +108,13 @@ describe("ADF on simulated series with known truth (seeded MT19937)", () => {
 });
 
 describe("ADF verdicts in short series follow the finite-sample critical value", () => {
-  /** A seeded Gaussian random walk of n weeks (a true unit root). */
-  function walk(seed: number, n: number): Float64Array {
-    const rng = new MersenneTwister(seed);
-    const y = new Float64Array(n);
-    let x = 0;
-    for (let t = 0; t < n; t++) {
-      x += rng.normal();
-      y[t] = 100 + x;
-    }
-    return y;
-  }
 
   it("worked case, n = 20 with a trend: τ between the asymptotic and finite-sample 5% values is not a rejection", () => {
     // Seed 46 was found by scanning seeds for a τ in the gap. At T = 19 the MacKinnon (2010)
     // 5% "ct" value is −3.41049 − 4.3904/19 − 9.036/19² − 45.374/19³ = −3.6732, while the
     // MacKinnon (1994) asymptotic p-value of τ = −3.514 is 0.038: the old verdict ("rejected",
     // from p < 0.05) contradicted the critical value printed in the same row.
-    const r = adf(walk(46, 20), { regression: "ct", lags: 0 });
+    const r = adf(randomWalk(46, 20), { regression: "ct", lags: 0 });
     expect(r.nobs).toBe(19);
     expect(r.statistic).toBeCloseTo(-3.514, 3);
     expect(r.pValue).toBeGreaterThan(0.03);
@@ -135,7 +125,7 @@ describe("ADF verdicts in short series follow the finite-sample critical value",
   });
 
   it("at a level with no tabulated critical value (2.5%) the asymptotic p-value decides", () => {
-    const r = adf(walk(46, 20), { regression: "ct", lags: 0, level: 0.025 });
+    const r = adf(randomWalk(46, 20), { regression: "ct", lags: 0, level: 0.025 });
     expect(r.rejected).toBe((r.pValue ?? 1) < 0.025);
     expect(r.parameters["verdict by"]).toBe("asymptotic p-value");
   });
@@ -146,7 +136,7 @@ describe("ADF verdicts in short series follow the finite-sample critical value",
     // the count should be ~Binomial(2000, 0.05): mean 100, sd 9.7; 129 is mean + 3 sd.
     let rejected = 0;
     for (let s = 0; s < 2000; s++) {
-      const r = adf(walk(5000 + s, 20), { regression: "ct", lags: 0 });
+      const r = adf(randomWalk(5000 + s, 20), { regression: "ct", lags: 0 });
       expect(r.rejected).toBe(r.statistic < (r.criticalValues?.["5%"] ?? NaN));
       if (r.rejected) rejected++;
     }

@@ -2,6 +2,7 @@ import { pp, ppBandwidth } from "../../../../src/core/diagnostics/unitroot/pp";
 import type { UnitRootCase } from "../../../../src/core/diagnostics/unitroot/mackinnon";
 import { MersenneTwister } from "../../../../src/core/math/rng";
 import { loadFixture } from "../../../fixtures";
+import { randomWalk } from "../../../simulate";
 
 interface PpCase {
   dataset: string;
@@ -63,22 +64,11 @@ describe("Phillips–Perron vs the assembled reference", () => {
 });
 
 describe("Phillips–Perron verdicts in short series follow the finite-sample critical value", () => {
-  /** A seeded Gaussian random walk of n weeks (a true unit root). */
-  function walk(seed: number, n: number): Float64Array {
-    const rng = new MersenneTwister(seed);
-    const y = new Float64Array(n);
-    let x = 0;
-    for (let t = 0; t < n; t++) {
-      x += rng.normal();
-      y[t] = 100 + x;
-    }
-    return y;
-  }
 
   it("worked case, n = 20 with a trend: Z(t) between the asymptotic and finite-sample 5% values is not a rejection", () => {
     // Seed 46 (found by scanning): Z(t) = −3.543 has asymptotic p = 0.035 (MacKinnon 1994),
     // but the MacKinnon (2010) 5% value at T = 19 is −3.6732, the one the row prints.
-    const r = pp(walk(46, 20), { regression: "ct" });
+    const r = pp(randomWalk(46, 20), { regression: "ct" });
     expect(r.nobs).toBe(19);
     expect(r.statistic).toBeCloseTo(-3.543, 3);
     expect(r.pValue).toBeLessThan(0.05);
@@ -94,7 +84,7 @@ describe("Phillips–Perron verdicts in short series follow the finite-sample cr
     // mean + 3 sd of Binomial(2000, 0.05), 129.
     let rejected = 0;
     for (let s = 0; s < 2000; s++) {
-      const r = pp(walk(5000 + s, 20), { regression: "ct" });
+      const r = pp(randomWalk(5000 + s, 20), { regression: "ct" });
       expect(r.rejected).toBe(r.statistic < (r.criticalValues?.["5%"] ?? NaN));
       if (r.rejected) rejected++;
     }

@@ -1,6 +1,5 @@
 import { pp, ppBandwidth } from "../../../../src/core/diagnostics/unitroot/pp";
 import type { UnitRootCase } from "../../../../src/core/diagnostics/unitroot/mackinnon";
-import { MersenneTwister } from "../../../../src/core/math/rng";
 import { loadFixture } from "../../../fixtures";
 import { randomWalk } from "../../../simulate";
 

@@ -18,7 +18,7 @@ import { regressorColumns } from "../src/core/models/sarima/spec";
 const WEEKS = 470;
 
 /** Weekly rates with a slow random-walk level, an annual cycle of period 52.18 and AR noise. */
-function syntheticRates(n: number, seed: number): Float64Array {
+function ratesWithArNoise(n: number, seed: number): Float64Array {
   const rng = new MersenneTwister(seed);
   const y = new Float64Array(n);
   let level = Math.log(1500);
@@ -31,7 +31,7 @@ function syntheticRates(n: number, seed: number): Float64Array {
   return y;
 }
 
-const y = syntheticRates(WEEKS, 3);
+const y = ratesWithArNoise(WEEKS, 3);
 const chosen: Record<string, SarimaFitted> = {};
 
 for (const seasonality of ["fourier", "lag52"] as const) {

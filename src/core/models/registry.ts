@@ -4,6 +4,7 @@
  * what this version offers, never silently replaced by another method.
  */
 import { InputError } from "../series/errors";
+import { combination } from "./combination";
 import { drift, lastWeek, lastYear } from "./naive";
 import { nnar } from "./nnar";
 import { sarima } from "./sarima";
@@ -15,6 +16,8 @@ const MODELS: Partial<Record<MethodCode, ModelSpec>> = {
   drift: drift,
   sarima: sarima as ModelSpec,
   nnar: nnar as ModelSpec,
+  // The combination reads this table when it is fitted, so members registered here are found.
+  combo: combination(() => MODELS) as ModelSpec,
 };
 
 export function availableMethods(): MethodCode[] {

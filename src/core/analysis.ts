@@ -9,6 +9,7 @@ import { InputError } from "./series/errors";
 import type { WeeklySeries } from "./series/types";
 import { WEEKDAY_NAMES } from "./series/wording";
 import { getModel } from "./models/registry";
+import type { SearchedStructure } from "./models/types";
 import type { Cell, ReportTable } from "./report";
 import { table } from "./report";
 import type { CheckTables } from "./diagnostics/battery";
@@ -26,7 +27,15 @@ export interface AnalysisOptions {
 }
 
 export interface Report {
-  tables: { data: ReportTable; outlook: ReportTable; fit: ReportTable } & CheckTables;
+  tables: {
+    data: ReportTable;
+    outlook: ReportTable;
+    fit: ReportTable;
+    /** Structures the method's automatic search fitted (TBATS, SARIMA). */
+    search?: ReportTable;
+    /** Seasonal factors from the method's own seasonal part, for dated series (TBATS). */
+    modelSeason?: ReportTable;
+  } & CheckTables;
   /** Intake warnings followed by the model's notes. */
   warnings: string[];
   /** The last week of data as YYYY-MM-DD, or null for an undated series. */
@@ -77,6 +86,16 @@ export function describeData(series: WeeklySeries): ReportTable {
   return table("Data", ["Item", "Value"], rows, [...series.warnings]);
 }
 
+/** The search table: every structure fitted, best first, with its distance from the best. */
+export function searchTable(label: string, tried: SearchedStructure[]): ReportTable {
+  const best = tried[0].value;
+  const criterion = tried[0].criterion;
+  const rows: Cell[][] = tried.map((c, i) => [c.structure, c.value, c.value - best, i === 0 ? "chosen" : null]);
+  return table(`Structures tried: ${label}`, ["Structure", criterion, `${criterion} above best`, "Chosen"], rows, [
+    `Every structure the automatic search fitted, lowest ${criterion} first. By a common rule of thumb (Burnham & Anderson, 2002), differences below about 2 are too small to prefer one structure on the data alone.`,
+  ]);
+}
+
 export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Report {
   const opts = resolveOptions(series, options);
   const model = getModel(opts.method);
@@ -111,8 +130,19 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Re
     ? runChecks(series, { residuals: fitted.residuals, armaDf: summary.armaDf, label: model.label })
     : { tables: {}, skipped: [] };
 
+  const extra: { search?: ReportTable; modelSeason?: ReportTable } = {};
+  const tried = fitted.searched?.() ?? [];
+  if (tried.length > 0) extra.search = searchTable(model.label, tried);
+  if (fitted.weekFactorTable && dated) {
+    try {
+      extra.modelSeason = fitted.weekFactorTable(series.dates);
+    } catch (e) {
+      if (!(e instanceof InputError)) throw e; // a model without a seasonal part has no factors
+    }
+  }
+
   return {
-    tables: { data: describeData(series), outlook, fit, ...checks.tables },
+    tables: { data: describeData(series), outlook, fit, ...extra, ...checks.tables },
     warnings: [...series.warnings, ...summary.notes, ...checks.skipped],
     lastWeek: last ? isoDate(last) : null,
     options: opts,

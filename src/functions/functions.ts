@@ -102,7 +102,7 @@ export function outlookRows(t: ReportTable): OutCell[][] {
  * @customfunction OUTLOOK
  * @param rates Weekly rates, oldest first: one column (or one row) of cells. A header cell on top is allowed; short gaps are filled and said so.
  * @param weeks Number of weeks ahead to forecast, a whole number from 1 to 260.
- * @param [method] Method code as text: "sarima" (seasonal ARIMA, orders chosen automatically), "nnar" (neural-network autoregression), "lastyear" (same week a year earlier), "lastweek" or "drift". If omitted: lastyear with at least two years of rates, otherwise lastweek.
+ * @param [method] Method code as text: "tbats" (trigonometric exponential smoothing, period 52.18 weeks), "sarima" (seasonal ARIMA, orders chosen automatically), "nnar" (neural-network autoregression), "combo" (average of tbats, sarima and nnar), "lastyear" (same week a year earlier), "lastweek" or "drift". If omitted: lastyear with at least two years of rates, otherwise lastweek.
  * @param [coverage] Interval coverage in percent: one number such as 80, or a row or column of numbers. If omitted: 80 and 95.
  * @param [dates] Week-ending dates beside the rates, one per rate cell. If omitted, the first column counts the weeks ahead (1, 2, 3 …).
  * @returns One row per week ahead: week ending, forecast, then low and high per coverage level.

@@ -8,6 +8,7 @@ import { combination } from "./combination";
 import { drift, lastWeek, lastYear } from "./naive";
 import { nnar } from "./nnar";
 import { sarima } from "./sarima";
+import { tbats } from "./tbats";
 import type { MethodCode, ModelSpec } from "./types";
 
 const MODELS: Partial<Record<MethodCode, ModelSpec>> = {
@@ -16,6 +17,7 @@ const MODELS: Partial<Record<MethodCode, ModelSpec>> = {
   drift: drift,
   sarima: sarima as ModelSpec,
   nnar: nnar as ModelSpec,
+  tbats: tbats as ModelSpec,
   // The combination reads this table when it is fitted, so members registered here are found.
   combo: combination(() => MODELS) as ModelSpec,
 };

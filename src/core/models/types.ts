@@ -3,6 +3,7 @@
  * only this; a new model is one folder plus one line in registry.ts.
  */
 import type { Rng } from "../math/rng";
+import type { ReportTable } from "../report";
 
 /** Method codes from the DESIGN.md vocabulary. */
 export type MethodCode = "tbats" | "sarima" | "nnar" | "lastyear" | "lastweek" | "drift" | "combo" | "auto";
@@ -36,6 +37,13 @@ export interface FitSummary {
   notes: string[];
 }
 
+/** One structure an automatic search fitted, and its information criterion. */
+export interface SearchedStructure {
+  structure: string;
+  criterion: "AIC" | "AICc";
+  value: number;
+}
+
 export interface UpdateOptions {
   /** false: filter the new weeks with fixed parameters; true: re-estimate from the previous optimum. */
   reestimate: boolean;
@@ -59,6 +67,10 @@ export interface Fitted {
   /** A model for the data extended by `newY` (the weeks after the last one fitted). */
   update(newY: Float64Array, options: UpdateOptions): Fitted;
   summary(): FitSummary;
+  /** Structures the automatic search fitted, best first (absent for methods without a search). */
+  searched?(): SearchedStructure[];
+  /** Seasonal factors by ISO week from the model's own seasonal part, for dated weeks (TBATS). */
+  weekFactorTable?(dates: Date[]): ReportTable;
 }
 
 export interface ModelSpec<O = Record<string, unknown>> {

@@ -21,7 +21,7 @@ import {
   type ModelTable,
 } from "../../../src/core/models/combination";
 import { drift, lastWeek, lastYear } from "../../../src/core/models/naive";
-import { getModel } from "../../../src/core/models/registry";
+import { availableMethods, getModel } from "../../../src/core/models/registry";
 import type { Fitted, Forecast, ModelSpec } from "../../../src/core/models/types";
 import { expectInputError } from "../../inputError";
 import { randomWalk } from "../../simulate";
@@ -31,6 +31,13 @@ const asRegistered: ModelSpec = combination(() => ({}));
 void asRegistered;
 
 const combo = getModel("combo");
+
+/** The registry's models by code, for a combination over a reduced table. */
+function registryTable(): ModelTable {
+  const t: ModelTable = {};
+  for (const c of availableMethods()) t[c] = getModel(c);
+  return t;
+}
 
 /** Weekly rates with a yearly cycle and persistent noise (seeded), positive. */
 function rates(n: number, seed: number): Float64Array {
@@ -310,18 +317,27 @@ describe("determinism and update()", () => {
 });
 
 describe("members chosen, dropped and refused", () => {
-  test("default members: SARIMA and NNAR when they fit; too few weeks bring in the baselines, with a note", () => {
+  test("default members: TBATS, SARIMA and NNAR when they fit; too few weeks bring in the baselines, with a note", () => {
     const fit = combo.fit(Y, { memberOptions: QUICK });
-    expect(fit.summary().structure).toBe("mean of SARIMA, NNAR");
-    // NNAR needs 21 weeks (one lag plus 20 training weeks), SARIMA 20.
+    expect(fit.summary().structure).toBe("mean of TBATS, SARIMA, NNAR");
+    // NNAR needs 21 weeks (one lag plus 20 training weeks); TBATS and SARIMA 20.
     const twenty = combo.fit(rates(20, 5), { memberOptions: QUICK }).summary();
-    expect(twenty.structure).toBe("mean of SARIMA, drift");
+    expect(twenty.structure).toBe("mean of TBATS, SARIMA");
     expect(twenty.notes).toContain("NNAR needs at least 21 weeks and the series has 20, so it is left out.");
-    expect(twenty.notes).toContain("Only SARIMA could be used with 20 weeks, so the baseline drift was added to make a combination of at least two.");
     const ten = combo.fit(rates(10, 5)).summary();
     expect(ten.structure).toBe("mean of drift, last week");
-    expect(ten.notes).toContain("None of SARIMA and NNAR could be used with 10 weeks, so the baselines drift and last week were added to make a combination of at least two.");
+    expect(ten.notes).toContain(
+      "None of TBATS, SARIMA and NNAR could be used with 10 weeks, so the baselines drift and last week were added to make a combination of at least two.",
+    );
     expect(combo.minLength()).toBe(3);
+  });
+
+  test("with only one default member usable, one baseline is added to make two (registry without TBATS)", () => {
+    const { tbats: _left, ...withoutTbats } = registryTable();
+    const noTbats = combination(() => withoutTbats);
+    const twenty = noTbats.fit(rates(20, 5), { memberOptions: QUICK }).summary();
+    expect(twenty.structure).toBe("mean of SARIMA, drift");
+    expect(twenty.notes).toContain("Only SARIMA could be used with 20 weeks, so the baseline drift was added to make a combination of at least two.");
   });
 
   test("a member too short for the data is left out with a plain note; none left is refused with a sentence", () => {

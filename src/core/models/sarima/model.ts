@@ -17,7 +17,7 @@ import { boxCoxInverse, boxCoxMeanBiasAdjusted, boxCoxTransform } from "../../ma
 import { normalMultiplier } from "../../math/distributions";
 import type { Rng } from "../../math/rng";
 import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
-import type { FitSummary, Fitted, Forecast, ParameterRow, UpdateOptions } from "../types";
+import type { FitSummary, Fitted, Forecast, ParameterRow, SearchedStructure, UpdateOptions } from "../types";
 import { aiccOf, estimate, evaluate, prepare, unconstrainedFrom, type ArmaCoefficients, type Estimate, type Prepared } from "./estimate";
 import { adjustedInnovation, armaFilter, logLikAtSigma2, symmetricInverse } from "./filter";
 import { expandAr, expandMa, multiplyAr, psiWeights } from "./polynomial";
@@ -333,6 +333,10 @@ export class SarimaFitted implements Fitted {
   /** Candidates the automatic search tried, best first. */
   candidates(): { structure: string; aicc: number }[] {
     return [...(this.options.candidates ?? [])].sort((a, b) => a.aicc - b.aicc);
+  }
+
+  searched(): SearchedStructure[] {
+    return this.candidates().map((c) => ({ structure: c.structure, criterion: "AICc", value: c.aicc }));
   }
 }
 

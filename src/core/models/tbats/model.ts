@@ -1,0 +1,262 @@
+/**
+ * A fitted TBATS model behind the model interface: forecasts with intervals from the
+ * state-space variance recursion, simulated paths, updates with and without re-estimation,
+ * and the seasonal component for factor tables.
+ *
+ * h-step forecast on the transformed scale (De Livera et al., 2011, §3.2, the standard
+ * innovations state-space results of Hyndman et al., 2008, ch. 6):
+ *   ẑ_{n+h} = wᵀF^{h−1}x_n,  Var = σ²(1 + Σ_{j=1}^{h−1} c_j²),  c_j = wᵀF^{j−1}g,
+ * both by repeated application of the O(state) transition (filter.ts `advance`). Bounds are
+ * back-transformed quantiles; the point is the back-transformed median, or with `biasAdjust`
+ * the bias-adjusted mean (math/boxcox.ts).
+ */
+import { boxCoxInverse, boxCoxMeanBiasAdjusted } from "../../math/boxcox";
+import { normalMultiplier } from "../../math/distributions";
+import type { Rng } from "../../math/rng";
+import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
+import type { ReportTable } from "../../report";
+import type { FitSummary, Fitted, Forecast, ParameterRow, SearchedStructure, UpdateOptions } from "../types";
+import { tbatsWeekFactors } from "./factors";
+import { advance, filterPass, predictFrom, type FilterPass } from "./filter";
+import { estimate, parameterCount, prepare, transformInto } from "./estimate";
+import { layoutOf, structureLabel, structureWords, type StateLayout, type TbatsParameters, type TbatsStructure } from "./structure";
+
+export interface TbatsCandidate {
+  structure: string;
+  aic: number;
+}
+
+export interface TbatsFitOptions {
+  /** Point forecasts as bias-adjusted means on the rate scale (Box-Cox only). */
+  biasAdjust?: boolean;
+  /** Sentences from the structure search, carried into summary(). */
+  notes?: string[];
+  /** Every candidate the search fitted. */
+  candidates?: TbatsCandidate[];
+  /** Whether the optimiser met its tolerances (a note otherwise). */
+  converged?: boolean;
+}
+
+/** Gaussian log-likelihood of y with seeds and σ² at their estimates, Jacobian included. */
+export function logLikelihood(sse: number, n: number, lambda: number | null, sumLogY: number): number {
+  const sigma2 = sse / n;
+  return -0.5 * n * (Math.log(2 * Math.PI * sigma2) + 1) + (lambda === null ? 0 : (lambda - 1) * sumLogY);
+}
+
+/** Parameters counted by the information criteria: free parameters, seed states and σ². */
+export function informationCount(s: TbatsStructure): number {
+  return parameterCount(s) + layoutOf(s).seedCount + 1;
+}
+
+export class TbatsFitted implements Fitted {
+  readonly method = "tbats" as const;
+  readonly n: number;
+  readonly aic: number;
+  readonly aicc: number;
+  /** One-step error variance on the transformed scale. */
+  readonly sigma2: number;
+  readonly logLik: number;
+  readonly fitted: Float64Array;
+  readonly residuals: Float64Array;
+  readonly layout: StateLayout;
+  /** Transformed series and the filter's record over it. */
+  readonly z: Float64Array;
+  readonly pass: FilterPass;
+
+  constructor(
+    readonly y: Float64Array,
+    readonly structure: TbatsStructure,
+    readonly par: TbatsParameters,
+    readonly seed: Float64Array,
+    readonly options: TbatsFitOptions = {},
+    /** σ² to keep (an update without re-estimation); estimated from the errors when absent. */
+    sigma2?: number,
+  ) {
+    const n = y.length;
+    this.n = n;
+    this.layout = layoutOf(structure);
+    const prep = prepare(y);
+    this.z = new Float64Array(n);
+    transformInto(prep, par.lambda, this.z);
+    this.pass = filterPass(this.layout, par, this.z, seed);
+    let sse = 0;
+    for (let t = 0; t < n; t++) sse += this.pass.errors[t] * this.pass.errors[t];
+    this.sigma2 = sigma2 ?? sse / n;
+    this.logLik = logLikelihood(sse, n, par.lambda, prep.sumLogY);
+    const k = informationCount(structure);
+    this.aic = -2 * this.logLik + 2 * k;
+    this.aicc = n - k - 1 > 0 ? this.aic + (2 * k * (k + 1)) / (n - k - 1) : NaN;
+    this.fitted = new Float64Array(n);
+    this.residuals = new Float64Array(n);
+    for (let t = 0; t < n; t++) {
+      this.fitted[t] = this.back(this.pass.predictions[t]);
+      this.residuals[t] = y[t] - this.fitted[t];
+    }
+  }
+
+  /** Inverse transform; below the transform's range (1 + λz < 0) the rate's limit is 0. */
+  private back(z: number): number {
+    const lam = this.par.lambda;
+    if (lam === null) return z;
+    const v = boxCoxInverse(z, lam);
+    return Number.isNaN(v) ? 0 : v;
+  }
+
+  /** Point forecasts on the transformed scale and the weights c_j, for steps 1..h. */
+  private paths(h: number): { mean: Float64Array; variance: Float64Array } {
+    const L = this.layout;
+    const x = Float64Array.from(this.pass.state);
+    const mean = new Float64Array(h);
+    for (let s = 0; s < h; s++) {
+      mean[s] = predictFrom(L, this.par, x);
+      advance(L, this.par, x, 0);
+    }
+    // u_j = F^{j−1} g, starting from g = F·0 + g·1.
+    const u = new Float64Array(L.size);
+    advance(L, this.par, u, 1);
+    const variance = new Float64Array(h);
+    let acc = 1;
+    for (let s = 0; s < h; s++) {
+      variance[s] = this.sigma2 * acc;
+      const c = predictFrom(L, this.par, u);
+      acc += c * c;
+      advance(L, this.par, u, 0);
+    }
+    return { mean, variance };
+  }
+
+  forecast(h: number, levels: number[]): Forecast {
+    checkHorizon(h);
+    checkLevels(levels);
+    const { mean, variance } = this.paths(h);
+    const lam = this.par.lambda;
+    const out: Forecast = { point: new Float64Array(h), levels: [...levels], lower: [], upper: [] };
+    for (let s = 0; s < h; s++) {
+      out.point[s] = lam !== null && this.options.biasAdjust ? boxCoxMeanBiasAdjusted(mean[s], variance[s], lam) : this.back(mean[s]);
+    }
+    for (const level of levels) {
+      const k = normalMultiplier(level);
+      const lo = new Float64Array(h);
+      const hi = new Float64Array(h);
+      for (let s = 0; s < h; s++) {
+        const sd = Math.sqrt(variance[s]);
+        lo[s] = this.back(mean[s] - k * sd);
+        hi[s] = this.back(mean[s] + k * sd);
+      }
+      out.lower.push(lo);
+      out.upper.push(hi);
+    }
+    return out;
+  }
+
+  simulate(h: number, paths: number, rng: Rng): Float64Array[] {
+    checkHorizon(h);
+    const L = this.layout;
+    const sd = Math.sqrt(this.sigma2);
+    const x = new Float64Array(L.size);
+    const out: Float64Array[] = [];
+    for (let p = 0; p < paths; p++) {
+      x.set(this.pass.state);
+      const path = new Float64Array(h);
+      for (let s = 0; s < h; s++) {
+        const eps = sd * rng.normal();
+        path[s] = this.back(predictFrom(L, this.par, x) + eps);
+        advance(L, this.par, x, eps);
+      }
+      out.push(path);
+    }
+    return out;
+  }
+
+  update(newY: Float64Array, options: UpdateOptions): Fitted {
+    const y = appendWeeks(this.y, newY, "tbats");
+    if (!options.reestimate) {
+      // Same parameters and seeds, filtered over the longer series; σ² kept as estimated.
+      return new TbatsFitted(y, this.structure, this.par, this.seed, { ...this.options, candidates: [] }, this.sigma2);
+    }
+    return fitTbatsStructure(y, this.structure, { ...this.options, start: this.par, fixedLambda: this.par.lambda, candidates: [] });
+  }
+
+  /**
+   * The seasonal component on the transformed scale: in-sample (the value in week t's
+   * prediction, Σ s_{j,t−1}) followed by `ahead` future weeks, where the seasonal states only
+   * rotate. Level likewise, for turning the component into factors on the rate scale.
+   */
+  components(ahead = 0): { seasonal: Float64Array; level: Float64Array } {
+    const L = this.layout;
+    const n = this.n;
+    const seasonal = new Float64Array(n + ahead);
+    const level = new Float64Array(n + ahead);
+    seasonal.set(this.pass.seasonal);
+    level.set(this.pass.level);
+    const x = Float64Array.from(this.pass.state);
+    for (let s = 0; s < ahead; s++) {
+      let v = 0;
+      for (let j = 0; j < L.harmonicCount; j++) v += x[L.sIndex[j]];
+      seasonal[n + s] = v;
+      level[n + s] = x[0];
+      advance(L, this.par, x, 0);
+    }
+    return { seasonal, level };
+  }
+
+  summary(): FitSummary {
+    const s = this.structure;
+    const p = this.par;
+    const parameters: ParameterRow[] = [];
+    if (p.lambda !== null) parameters.push({ name: "lambda", value: p.lambda });
+    parameters.push({ name: "alpha", value: p.alpha });
+    if (s.trend) parameters.push({ name: "beta", value: p.beta });
+    if (s.trend && s.damped) parameters.push({ name: "phi", value: p.phi });
+    s.periods.forEach((m, i) => {
+      const tag = s.periods.length > 1 ? `${i + 1}` : "";
+      parameters.push({ name: `gamma1${tag}`, value: p.gamma1[i] }, { name: `gamma2${tag}`, value: p.gamma2[i] });
+    });
+    p.ar.forEach((v, j) => parameters.push({ name: `ar${j + 1}`, value: v }));
+    p.ma.forEach((v, j) => parameters.push({ name: `ma${j + 1}`, value: v }));
+    parameters.push({ name: "sigma2", value: this.sigma2 });
+    parameters.push({ name: "log-likelihood", value: this.logLik });
+    parameters.push({ name: "AIC", value: this.aic });
+    const notes = [...(this.options.notes ?? [])];
+    notes.push(
+      `TBATS with ${structureWords(s)}; ${this.layout.seedCount} seed states estimated by regression.` +
+        (p.lambda !== null ? " σ² is on the Box-Cox scale." : ""),
+    );
+    if (this.options.converged === false) notes.push("The optimiser stopped at its evaluation budget before meeting its tolerances; the fit is the best point it found.");
+    return { method: "tbats", structure: structureLabel(s, p), parameters, armaDf: s.p + s.q, notes };
+  }
+
+  /** Candidates the structure search fitted, best first. */
+  candidates(): TbatsCandidate[] {
+    return [...(this.options.candidates ?? [])].sort((a, b) => a.aic - b.aic);
+  }
+
+  searched(): SearchedStructure[] {
+    return this.candidates().map((c) => ({ structure: c.structure, criterion: "AIC", value: c.aic }));
+  }
+
+  weekFactorTable(dates: Date[]): ReportTable {
+    return tbatsWeekFactors(this, dates).table;
+  }
+}
+
+export interface StructureFitOptions extends TbatsFitOptions {
+  /** Warm start. */
+  start?: TbatsParameters;
+  /** λ when the structure has no Box-Cox estimate: a fixed transform (default none). */
+  fixedLambda?: number | null;
+  /** Starting λ for an estimated transform (default 0.5). */
+  startLambda?: number | null;
+  maxEval?: number;
+}
+
+/** Fit one given structure to positive rates y. */
+export function fitTbatsStructure(y: Float64Array, structure: TbatsStructure, options: StructureFitOptions = {}): TbatsFitted {
+  const prep = prepare(y);
+  const est = estimate(prep, structure, options.fixedLambda ?? null, options.startLambda ?? null, {
+    start: options.start,
+    maxEval: options.maxEval,
+  });
+  const { start: _s, fixedLambda: _f, startLambda: _l, maxEval: _m, ...fitOptions } = options;
+  return new TbatsFitted(y, structure, est.par, est.seed, { ...fitOptions, converged: est.converged });
+}

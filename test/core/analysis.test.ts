@@ -31,6 +31,32 @@ describe("analyse()", () => {
     expect(t.notes.join(" ")).toMatch(/not advice to book, fix or trade/);
   });
 
+  test("TBATS: the search table lists every fitted structure best first, and the factor table comes from its seasonal states", () => {
+    const r = analyse(series, { method: "tbats", horizon: 4, checks: false });
+    const search = r.tables.search;
+    expect(search).toBeDefined();
+    const rows = search?.rows ?? [];
+    expect(search?.columns).toEqual(["Structure", "AIC", "AIC above best", "Chosen"]);
+    // Best first, differences from the best non-negative, exactly one chosen: the fitted structure.
+    for (let i = 1; i < rows.length; i++) expect(rows[i][1] as number).toBeGreaterThanOrEqual(rows[i - 1][1] as number);
+    expect(rows[0][2]).toBe(0);
+    expect(rows.filter((row) => row[3] === "chosen")).toHaveLength(1);
+    // The chosen row is the structure the outlook was made with.
+    expect(r.tables.outlook.notes[0]).toBe(`Method: ${rows[0][0]}.`);
+    const season = r.tables.modelSeason;
+    expect(season?.title).toBe("Seasonal factors by ISO week (TBATS)");
+    expect(season?.rows).toHaveLength(52);
+    // Multiplicative factors average exactly 1 over the weeks observed.
+    const f = (season?.rows ?? []).map((row) => row[1]).filter((v): v is number => typeof v === "number");
+    expect(f.reduce((a, b) => a + b, 0) / f.length).toBeCloseTo(1, 12);
+  });
+
+  test("a method without a search has no search table", () => {
+    const r = analyse(series, { method: "lastyear", horizon: 2, checks: false });
+    expect(r.tables.search).toBeUndefined();
+    expect(r.tables.modelSeason).toBeUndefined();
+  });
+
   test("the data table states what was read", () => {
     const r = analyse(series, { method: "lastweek", horizon: 1 });
     const d = Object.fromEntries(r.tables.data.rows.map((row) => [row[0], row[1]]));

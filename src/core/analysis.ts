@@ -10,6 +10,11 @@ import type { WeeklySeries } from "./series/types";
 import { WEEKDAY_NAMES } from "./series/wording";
 import { getModel } from "./models/registry";
 import type { SearchedStructure } from "./models/types";
+import { modeLabel } from "./evaluate/backtest";
+import { DEFAULT_TEST_WEEKS, type BacktestOptions } from "./evaluate/plan";
+import { backtest, type BacktestControl } from "./evaluate/run";
+import { bestBy, scoreRuns } from "./evaluate/score";
+import { backtestTables, type BacktestTables } from "./evaluate/tables";
 import type { Cell, ReportTable } from "./report";
 import { table } from "./report";
 import type { CheckTables } from "./diagnostics/battery";
@@ -24,7 +29,29 @@ export interface AnalysisOptions {
   levels?: number[];
   /** Run the diagnostic checks (stationarity, seasonality, nonlinearity, residuals); default true. */
   checks?: boolean;
+  /**
+   * Run a rolling-origin backtest (src/core/evaluate) with these options and add its tables;
+   * with method "auto" it runs anyway (defaults below) and picks the method. Default: none.
+   */
+  backtest?: BacktestOptions | null;
+  /** The accuracy measure "auto" chooses by (mean over the backtest's weeks ahead); default "mase". */
+  choose?: ChoiceMetric;
 }
+
+export type ChoiceMetric = "mase" | "mape" | "rmse" | "smape";
+
+/** Options after defaults, as the report states them. */
+export interface ResolvedOptions {
+  method: string;
+  horizon: number;
+  levels: number[];
+  checks: boolean;
+  backtest: BacktestOptions | null;
+  choose: ChoiceMetric;
+}
+
+/** Progress and cancellation for the slow part of an analysis (the backtest). */
+export type AnalysisControl = BacktestControl;
 
 export interface Report {
   tables: {
@@ -35,20 +62,25 @@ export interface Report {
     search?: ReportTable;
     /** Seasonal factors from the method's own seasonal part, for dated series (TBATS). */
     modelSeason?: ReportTable;
+    /** Backtest tables, when a backtest ran (evaluate/tables.ts). */
+    backtest?: ReportTable;
+    backtestSignificance?: ReportTable;
+    backtestCost?: ReportTable;
+    backtestOrigins?: ReportTable;
   } & CheckTables;
   /** Intake warnings followed by the model's notes. */
   warnings: string[];
   /** The last week of data as YYYY-MM-DD, or null for an undated series. */
   lastWeek: string | null;
   /** The options actually used, after defaults. */
-  options: Required<AnalysisOptions>;
+  options: ResolvedOptions;
 }
 
 export const MAX_HORIZON = 260;
 export const DEFAULT_HORIZON = 12;
 export const DEFAULT_LEVELS = [80, 95];
 
-export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = {}): Required<AnalysisOptions> {
+export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = {}): ResolvedOptions {
   const horizon = options.horizon ?? DEFAULT_HORIZON;
   if (!Number.isInteger(horizon) || horizon < 1 || horizon > MAX_HORIZON) {
     throw new InputError("BAD_OPTION", `The number of weeks ahead must be a whole number from 1 to ${MAX_HORIZON}; got ${horizon}.`);
@@ -61,7 +93,11 @@ export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = 
     }
   }
   const method = options.method ?? (series.values.length >= 104 ? "lastyear" : "lastweek");
-  return { method, horizon, levels: [...levels], checks: options.checks ?? true };
+  const choose = options.choose ?? "mase";
+  if (!["mase", "mape", "rmse", "smape"].includes(choose)) {
+    throw new InputError("BAD_OPTION", `"auto" chooses by MASE, MAPE, RMSE or sMAPE; got "${String(choose)}".`);
+  }
+  return { method: method.trim().toLowerCase(), horizon, levels: [...levels], checks: options.checks ?? true, backtest: options.backtest ?? null, choose };
 }
 
 function levelLabel(l: number): string {
@@ -96,15 +132,56 @@ export function searchTable(label: string, tried: SearchedStructure[]): ReportTa
   ]);
 }
 
-export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Report {
+/** Methods "auto" compares by default: the three models, their combination and the seasonal naive. */
+export const AUTO_CANDIDATES = ["tbats", "sarima", "nnar", "combo", "lastyear"];
+
+/**
+ * The backtest of an analysis and, for "auto", the method it picks. Candidates that need more
+ * weeks than the first origin offers are left out (the seasonal naive needs two years, say).
+ */
+function runBacktest(
+  series: WeeklySeries,
+  opts: ResolvedOptions,
+  control: AnalysisControl,
+): { tables: BacktestTables; chosen: string | null; note: string | null } {
+  const asked = opts.backtest ?? {};
+  const n = series.values.length;
+  let methods = asked.methods;
+  if (!methods) {
+    const before = n - (asked.testWeeks ?? DEFAULT_TEST_WEEKS) * (asked.windows ?? 1);
+    methods = AUTO_CANDIDATES.filter((m) => m === "combo" || getModel(m).minLength() <= before);
+    if (methods.filter((m) => m !== "combo" && m !== "lastyear").length < 2) methods = methods.filter((m) => m !== "combo");
+    if (methods.length === 0) {
+      throw new InputError("TOO_FEW_POINTS", `A backtest needs more weeks before its test window; the series has ${n}. Use fewer test weeks.`);
+    }
+  }
+  const result = backtest(series.values, { ...asked, methods, levels: asked.levels ?? opts.levels }, getModel, control);
+  const dated = series.dates.length === n && n > 0;
+  const tables = backtestTables(series.values, result, dated ? series.dates : null);
+  if (opts.method !== "auto") return { tables, chosen: null, note: null };
+  const mode = result.plan.modes[0];
+  const chosen = bestBy(scoreRuns(series.values, result.plan, result.runs), mode, opts.choose, result.plan.windows.length);
+  if (chosen === null) throw new InputError("TOO_FEW_POINTS", "None of the methods could be scored in the backtest, so none can be chosen.");
+  const label = getModel(chosen).label;
+  const note =
+    `Chosen by backtest: ${label} had the lowest ${opts.choose.toUpperCase()} averaged over 1–${result.plan.horizon} weeks ahead, ` +
+    `from every week of the last ${result.plan.windows.length * (result.plan.windows[0].last - result.plan.windows[0].first + 1)} weeks (re-estimated ${modeLabel(mode)}).`;
+  return { tables, chosen, note };
+}
+
+export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, control: AnalysisControl = {}): Report {
   const opts = resolveOptions(series, options);
-  const model = getModel(opts.method);
+  let bt: { tables: BacktestTables; chosen: string | null; note: string | null } | null = null;
+  if (opts.method === "auto" || opts.backtest) bt = runBacktest(series, opts, control);
+  const code = bt?.chosen ?? opts.method;
+  const model = getModel(code);
   const n = series.values.length;
   const need = model.minLength();
   if (n < need) {
     throw new InputError("TOO_FEW_POINTS", `${model.label} needs at least ${need} weeks of rates; the data has ${n}.`);
   }
-  const fitted = model.fit(series.values);
+  const comboMembers = code === "combo" && bt ? opts.backtest?.comboMembers : undefined;
+  const fitted = model.fit(series.values, comboMembers ? { members: comboMembers } : undefined);
   const fc = fitted.forecast(opts.horizon, opts.levels);
   const dated = series.dates.length === n && n > 0;
   const last = dated ? series.dates[n - 1] : null;
@@ -120,6 +197,7 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Re
   const summary = fitted.summary();
   const outlook = table(`Outlook: ${model.label}`, columns, rows, [
     `Method: ${summary.structure}.`,
+    ...(bt?.note ? [bt.note] : []),
     "Forecasts are statistical estimates from past rates only; they are not advice to book, fix or trade.",
   ]);
   const fitRows: Cell[][] = summary.parameters.map((p) => [p.name, p.value, p.se ?? null]);
@@ -130,7 +208,7 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Re
     ? runChecks(series, { residuals: fitted.residuals, armaDf: summary.armaDf, label: model.label })
     : { tables: {}, skipped: [] };
 
-  const extra: { search?: ReportTable; modelSeason?: ReportTable } = {};
+  const extra: Partial<Record<"search" | "modelSeason" | "backtest" | "backtestSignificance" | "backtestCost" | "backtestOrigins", ReportTable>> = {};
   const tried = fitted.searched?.() ?? [];
   if (tried.length > 0) extra.search = searchTable(model.label, tried);
   if (fitted.weekFactorTable && dated) {
@@ -141,9 +219,16 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}): Re
     }
   }
 
+  if (bt) {
+    extra.backtest = bt.tables.accuracy;
+    extra.backtestSignificance = bt.tables.significance;
+    extra.backtestCost = bt.tables.cost;
+    extra.backtestOrigins = bt.tables.origins;
+  }
+
   return {
     tables: { data: describeData(series), outlook, fit, ...extra, ...checks.tables },
-    warnings: [...series.warnings, ...summary.notes, ...checks.skipped],
+    warnings: [...series.warnings, ...(bt?.note ? [bt.note] : []), ...summary.notes, ...checks.skipped],
     lastWeek: last ? isoDate(last) : null,
     options: opts,
   };

@@ -51,6 +51,30 @@ describe("analyse()", () => {
     expect(f.reduce((a, b) => a + b, 0) / f.length).toBeCloseTo(1, 12);
   });
 
+  test('"auto" picks the method with the lowest mean MASE in the backtest and says so', () => {
+    const bt = { methods: ["lastweek", "drift", "lastyear"], testWeeks: 20, horizon: 2, modes: ["fixed" as const] };
+    const r = analyse(series, { method: "auto", horizon: 3, checks: false, backtest: bt });
+    const acc = r.tables.backtest;
+    expect(acc?.title).toBe("Backtest accuracy");
+    // Mean MASE over weeks ahead 1–2 per method, from the table itself.
+    const mase = new Map<string, number[]>();
+    for (const row of acc?.rows ?? []) mase.set(row[0] as string, [...(mase.get(row[0] as string) ?? []), row[7] as number]);
+    const means = [...mase.entries()].map(([m, v]) => [m, v.reduce((a, b) => a + b, 0) / v.length] as const);
+    const best = means.reduce((a, b) => (b[1] < a[1] ? b : a))[0];
+    expect(r.tables.outlook.title).toBe(`Outlook: ${best}`);
+    expect(r.tables.outlook.notes[1]).toMatch(new RegExp(`^Chosen by backtest: ${best} had the lowest MASE averaged over 1–2 weeks ahead, from every week of the last 20 weeks`));
+    expect(r.tables.backtestSignificance?.rows).toHaveLength(2 * 2);
+    expect(r.options.method).toBe("auto");
+  });
+
+  test("a backtest can accompany any method; its tables come back beside the outlook", () => {
+    const r = analyse(series, { method: "lastweek", horizon: 2, checks: false, backtest: { methods: ["lastweek", "drift"], testWeeks: 10, horizon: 1, modes: ["fixed"] } });
+    expect(r.tables.outlook.title).toBe("Outlook: Last week");
+    expect(r.tables.backtest?.rows).toHaveLength(2);
+    expect(r.tables.backtestOrigins?.rows).toHaveLength(2 * 10);
+    expect(r.tables.backtestCost?.rows.map((row) => row[3])).toEqual([1, 1]);
+  });
+
   test("a method without a search has no search table", () => {
     const r = analyse(series, { method: "lastyear", horizon: 2, checks: false });
     expect(r.tables.search).toBeUndefined();
@@ -68,7 +92,7 @@ describe("analyse()", () => {
 
   test("defaults: seasonal naive with two years of history, 12 weeks, 80 and 95", () => {
     const r = analyse(series);
-    expect(r.options).toEqual({ method: "lastyear", horizon: 12, levels: [80, 95], checks: true });
+    expect(r.options).toEqual({ method: "lastyear", horizon: 12, levels: [80, 95], checks: true, backtest: null, choose: "mase" });
     expect(r.tables.outlook.rows).toHaveLength(12);
   });
 

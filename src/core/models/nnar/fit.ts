@@ -147,10 +147,10 @@ class NnarFit implements Fitted {
       // Warm start: each network from its previous weights, with the lags, λ and scaling kept so
       // that those weights still mean what they meant.
       const data = buildDesign(scaled(x, scaling), settings.lags, settings.maxLag);
-      const t = train(data, ensemble.shape, settings.decay, ensemble.weights, settings.repeats, settings.maxIter);
+      const t = train(data, ensemble.shape, settings.decay, ensemble.weights, settings.repeats, settings.refitIter);
       ensemble = { ...ensemble, weights: t.weights };
       record = t.record;
-      notes.push(`Re-estimated on ${n} weeks from the previous weights; lags, λ and scaling kept from the first fit.`);
+      notes.push(`Re-estimated on ${n} weeks from the previous weights (up to ${settings.refitIter} iterations); lags, λ and scaling kept from the first fit.`);
     } else if (newY.length > 0) {
       notes.push(`Extended by ${newY.length} week(s) with the weights and scaling of the fit to ${this.n} weeks.`);
     }

@@ -33,6 +33,7 @@ export interface NnarSettings {
   decay: number;
   seed: number;
   maxIter: number;
+  refitIter: number;
   paths: number;
 }
 
@@ -184,7 +185,7 @@ export function resolve(yIn: ArrayLike<number>, options: NnarOptions | undefined
   const size = o.size ?? Math.max(1, Math.round((p + P + 1) / 2));
   if (o.size === undefined) notes.push(`k = ${size} hidden units, round((p + P + 1)/2).`);
   return {
-    settings: { p, P, size, lags, maxLag, lambda, repeats: o.repeats, decay: o.decay, seed: o.seed, maxIter: o.maxIter, paths: o.paths },
+    settings: { p, P, size, lags, maxLag, lambda, repeats: o.repeats, decay: o.decay, seed: o.seed, maxIter: o.maxIter, refitIter: o.refitIter, paths: o.paths },
     y,
     x,
     scaling,

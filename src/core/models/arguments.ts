@@ -31,3 +31,16 @@ export function appendWeeks(y: Float64Array, newY: ArrayLike<number>, method: st
   out.set(newY, y.length);
   return out;
 }
+
+/** An option the user set that cannot be honoured, as an InputError with the given sentence. */
+export function badOption(sentence: string): InputError {
+  return new InputError("BAD_OPTION", sentence);
+}
+
+/** A whole-number option from lo to hi, or an InputError naming it ("the number of paths"). */
+export function wholeOption(value: unknown, lo: number, hi: number, what: string): number {
+  if (typeof value !== "number" || !Number.isInteger(value) || value < lo || value > hi) {
+    throw badOption(`The ${what} must be a whole number from ${lo} to ${hi}; got ${String(value)}.`);
+  }
+  return value;
+}

@@ -2,8 +2,8 @@
  * Options of a forecast combination: their names, defaults and checks, and the fewest weeks a
  * setting needs. The names are ours (DESIGN.md, "Vocabulary").
  */
-import { InputError } from "../../series/errors";
 import type { MethodCode, ModelSpec } from "../types";
+import { badOption, wholeOption } from "../arguments";
 
 export type CombinationRule = "mean" | "median" | "inverse-mse";
 export type IntervalMethod = "quantiles" | "paths";
@@ -81,16 +81,8 @@ const KNOWN = ["members", "memberOptions", "rule", "mse", "holdoutWeeks", "holdo
 const RULES: CombinationRule[] = ["mean", "median", "inverse-mse"];
 const INTERVALS: IntervalMethod[] = ["quantiles", "paths"];
 
-function bad(sentence: string): InputError {
-  return new InputError("BAD_OPTION", sentence);
-}
-
-function whole(value: unknown, lo: number, hi: number, what: string): number {
-  if (typeof value !== "number" || !Number.isInteger(value) || value < lo || value > hi) {
-    throw bad(`The ${what} must be a whole number from ${lo} to ${hi}; got ${String(value)}.`);
-  }
-  return value;
-}
+const bad = badOption;
+const whole = wholeOption;
 
 /** Registered codes a combination may contain (everything but combo itself). */
 export function combinable(table: ModelTable): string[] {

@@ -7,7 +7,7 @@
  * The choices the book leaves open are fixed here and reported in the fit's notes.
  */
 import { WEEKS_PER_YEAR } from "../../series/calendar";
-import { InputError } from "../../series/errors";
+import { badOption, wholeOption } from "../arguments";
 
 /** Season length of the seasonal lags (DESIGN.md, "Periods": NNAR uses the integer lag 52). */
 export const SEASON = WEEKS_PER_YEAR;
@@ -83,16 +83,8 @@ export interface CheckedOptions {
   paths: number;
 }
 
-function bad(sentence: string): InputError {
-  return new InputError("BAD_OPTION", sentence);
-}
-
-function whole(value: unknown, lo: number, hi: number, what: string): number {
-  if (typeof value !== "number" || !Number.isInteger(value) || value < lo || value > hi) {
-    throw bad(`The ${what} must be a whole number from ${lo} to ${hi}; got ${String(value)}.`);
-  }
-  return value;
-}
+const bad = badOption;
+const whole = wholeOption;
 
 /** Checks every option's type and range (not yet against the series). */
 export function checkOptions(options: NnarOptions = {}): CheckedOptions {

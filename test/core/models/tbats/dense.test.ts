@@ -21,7 +21,7 @@ import { admissible, characteristicPolynomial, gammaWedge } from "../../../../sr
 import { filterPass, referenceSeed, SeedRegression } from "../../../../src/core/models/tbats/filter";
 import { TbatsFitted } from "../../../../src/core/models/tbats/model";
 import { layoutOf, type TbatsParameters, type TbatsStructure } from "../../../../src/core/models/tbats/structure";
-import { denseFilter, denseSystem, type DenseSystem } from "./dense";
+import { denseFilter, denseSystem, maxAbs, maxAbsDiff, type DenseSystem } from "./dense";
 import { forwardBoxCox, simulateTbats } from "./simulate";
 
 const WEEK_YEAR = 365.25 / 7;
@@ -91,18 +91,6 @@ function dataFor(c: Case, seed: number): Float64Array {
     new MersenneTwister(seed),
   );
   return sim.z;
-}
-
-function maxAbs(a: ArrayLike<number>): number {
-  let m = 0;
-  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i]));
-  return m;
-}
-
-function maxAbsDiff(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  let m = 0;
-  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i] - b[i]));
-  return m;
 }
 
 function sumSq(a: ArrayLike<number>): number {

@@ -109,3 +109,16 @@ export function denseFilter(sys: DenseSystem, z: ArrayLike<number>, x0: ArrayLik
   }
   return { errors, final: x };
 }
+
+/** Largest absolute entry, and largest absolute difference of two equal-length arrays. */
+export function maxAbs(a: ArrayLike<number>): number {
+  let m = 0;
+  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i]));
+  return m;
+}
+
+export function maxAbsDiff(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  let m = 0;
+  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i] - b[i]));
+  return m;
+}

@@ -11,7 +11,7 @@ import { MersenneTwister } from "../../../../src/core/math/rng";
 import { filterPass } from "../../../../src/core/models/tbats/filter";
 import { fitTbatsStructure, TbatsFitted } from "../../../../src/core/models/tbats/model";
 import type { TbatsStructure } from "../../../../src/core/models/tbats/structure";
-import { denseFilter, denseSystem } from "./dense";
+import { denseFilter, denseSystem, maxAbs, maxAbsDiff } from "./dense";
 import { forwardBoxCox, inverseBoxCox, simulateTbats, type TbatsTruth } from "./simulate";
 
 const WEEK_YEAR = 365.25 / 7;
@@ -27,18 +27,6 @@ const all = simulateTbats(truth, N + EXTRA, new MersenneTwister(4242)).y;
 const y = all.slice(0, N);
 const newY = all.slice(N);
 const fit = fitTbatsStructure(y, structure);
-
-function maxAbs(a: ArrayLike<number>): number {
-  let m = 0;
-  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i]));
-  return m;
-}
-
-function maxAbsDiff(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  let m = 0;
-  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i] - b[i]));
-  return m;
-}
 
 describe("update", () => {
   const fixed = fit.update(newY, { reestimate: false }) as TbatsFitted;

@@ -11,5 +11,6 @@ module.exports = {
   moduleNameMapper: {
     "^office-addin-manifest$": "<rootDir>/node_modules/office-addin-manifest/lib/officeApp",
   },
+  globalSetup: "<rootDir>/test/engine/globalSetup.ts",
   testPathIgnorePatterns: ["/node_modules/", "/test/browser/", "/test/office-suite/"],
 };

@@ -21,3 +21,21 @@ for (const mode of ["fixed", 4, "every"] as const) {
   }
   process.stdout.write(JSON.stringify({ name: `evaluate.backtest tbats+sarima+nnar+combo, refit ${String(mode)}, one thread`, n: N, origins: 52, horizon: 4, median_ms: Number(ms.toFixed(1)), runs: 1 }) + "\n");
 }
+
+/** The same backtests through the engine's worker pool (one worker per core). */
+async function pooled(): Promise<void> {
+  const { createEngine, backtestInEngine } = await import("../src/engine");
+  const { NodeTransport } = await import("../src/engine/node");
+  const transport = new NodeTransport();
+  const engine = createEngine(transport, { cache: false });
+  for (const mode of ["fixed", "every"] as const) {
+    const t0 = process.hrtime.bigint();
+    await backtestInEngine(engine, y, { methods: ["tbats", "sarima", "nnar", "combo"], testWeeks: 52, horizon: 4, modes: [mode] });
+    const ms = Number(process.hrtime.bigint() - t0) / 1e6;
+    process.stdout.write(
+      JSON.stringify({ name: `evaluate.backtest tbats+sarima+nnar+combo, refit ${mode}, worker pool`, n: N, origins: 52, horizon: 4, workers: engine.size, median_ms: Number(ms.toFixed(1)), runs: 1 }) + "\n",
+    );
+  }
+  engine.close();
+}
+void pooled();

@@ -118,6 +118,13 @@ function emptyRun(method: string, label: string, mode: RefitMode, window: number
   };
 }
 
+/** A run that produced nothing, with the sentence saying why (a worker that crashed, say). */
+export function failedRun(plan: BacktestPlan, method: string, label: string, mode: RefitMode, window: number, failure: string): BacktestRun {
+  const run = emptyRun(method, label, mode, window, originsOf(plan.windows[window]), plan.horizon, plan.levels.length);
+  run.failure = failure;
+  return run;
+}
+
 export function originsOf(w: WindowSpan): number[] {
   const out: number[] = [];
   for (let o = w.first; o <= w.last; o++) out.push(o);

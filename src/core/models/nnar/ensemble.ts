@@ -11,6 +11,9 @@ import { bfgs } from "../../math/optimise/bfgs";
 import { MersenneTwister, Rng } from "../../math/rng";
 import { NetShape, TrainingData, initialWeights, penalisedObjective, predictOne, weightCount } from "./network";
 
+/** Module binding: a global Math lookup in the path loop costs measurably under jest. */
+const exp = Math.exp;
+
 /** Converged when the gradient's max-norm is below this; E is a sum over hundreds of weeks of z² ≈ 1. */
 const GRADIENT_TOLERANCE = 1e-5;
 
@@ -127,17 +130,66 @@ export function pointPath(e: Ensemble, z: Float64Array, h: number): Float64Array
 
 /**
  * `paths` bootstrap sample paths on the z scale. errors are the centred in-sample residuals
- * on the z scale; each step draws one with rng.integer.
+ * on the z scale; each step draws one with rng.integer, path by path.
+ *
+ * At step s only the inputs whose lag is at most s differ between paths (they read simulated
+ * weeks); the rest read observed weeks, the same for every path. Their share of each hidden
+ * unit's pre-activation is therefore computed once per step, network and unit, and a path adds
+ * only its own few terms: with lags 1..p and 52, step 1 needs no input sum at all per path, and
+ * step s a sum over s − 1 inputs instead of p + 1.
  */
 export function samplePaths(e: Ensemble, z: Float64Array, h: number, paths: number, errors: Float64Array, rng: Rng): Float64Array[] {
   const m = errors.length;
-  const noise = (): number => errors[rng.integer(m)];
-  const input = new Float64Array(e.lags.length);
+  const { lags, maxLag: M, repeats: R, weights: w } = e;
+  const L = lags.length;
+  const k = e.shape.hidden;
+  const stride = e.shape.inputs + 1;
+  const W = weightCount(e.shape);
   const history = seededHistory(e, z, h);
+  const varying = new Int32Array(h);
+  const common = new Float64Array(h * R * k);
+  for (let s = 0; s < h; s++) {
+    let V = 0;
+    while (V < L && lags[V] <= s) V++;
+    varying[s] = V;
+    for (let r = 0; r < R; r++) {
+      for (let j = 0; j < k; j++) {
+        const base = r * W + j * stride;
+        let a = w[base];
+        for (let i = V; i < L; i++) a += w[base + 1 + i] * history[M + s - lags[i]];
+        common[(s * R + r) * k + j] = a;
+      }
+    }
+  }
+  // Steps with no simulated input (step 1, and more when the smallest lag exceeds 1) have the
+  // same network output on every path: computed once.
+  const shared = new Float64Array(h).fill(NaN);
   const out: Float64Array[] = [];
-  for (let j = 0; j < paths; j++) {
-    recurse(e, history, h, input, noise);
-    out.push(history.slice(e.maxLag));
+  for (let p = 0; p < paths; p++) {
+    const sim = new Float64Array(h);
+    for (let s = 0; s < h; s++) {
+      const V = varying[s];
+      if (V === 0 && !Number.isNaN(shared[s])) {
+        sim[s] = shared[s] + errors[rng.integer(m)];
+        continue;
+      }
+      let total = 0;
+      for (let r = 0; r < R; r++) {
+        const o = r * W + k * stride;
+        let y = w[o];
+        const c0 = (s * R + r) * k;
+        for (let j = 0; j < k; j++) {
+          const base = r * W + j * stride;
+          let a = common[c0 + j];
+          for (let i = 0; i < V; i++) a += w[base + 1 + i] * sim[s - lags[i]];
+          y += w[o + 1 + j] / (1 + exp(-a));
+        }
+        total += y;
+      }
+      if (V === 0) shared[s] = total / R;
+      sim[s] = total / R + errors[rng.integer(m)];
+    }
+    out.push(sim);
   }
   return out;
 }

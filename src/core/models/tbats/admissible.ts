@@ -23,7 +23,6 @@
  * the seed pattern never forgotten, which the paper's software also fits) without letting the
  * test hinge on rounding.
  */
-import { maxPartialAutocorrelation } from "../sarima/polynomial";
 import type { StateLayout, TbatsParameters } from "./structure";
 
 export const ADMISSIBLE_RADIUS = 1 + 1e-7;
@@ -102,14 +101,27 @@ export function characteristicPolynomial(L: StateLayout, par: TbatsParameters): 
 export function stepDownMax(P: Float64Array, r: number): number {
   const n = P.length - 1;
   // Monic z^n + a_1 z^{n−1} + … + a_n of P(rz)/rⁿ: a_i = P[n−i]·r^{−i}. The AR form 1 − φ_1B − …
-  // with φ_i = −a_i has the same roots in 1/B, so the stationarity test is the root test.
-  const phi = new Float64Array(n);
+  // with φ_i = −a_i has the same roots in 1/B, so the stationarity test is the root test:
+  // the reverse Durbin–Levinson recursion (as sarima/polynomial.ts maxPartialAutocorrelation),
+  // here in place on one buffer since it runs at every likelihood evaluation.
+  const cur = new Float64Array(n);
+  const next = new Float64Array(n);
   let ri = 1;
   for (let i = 1; i <= n; i++) {
     ri /= r;
-    phi[i - 1] = -P[n - i] * ri;
+    cur[i - 1] = -P[n - i] * ri;
   }
-  return maxPartialAutocorrelation(phi);
+  let worst = 0;
+  for (let k = n - 1; k >= 0; k--) {
+    const rk = cur[k];
+    const a = Math.abs(rk);
+    if (!(a < 1)) return Infinity;
+    if (a > worst) worst = a;
+    const denom = 1 - rk * rk;
+    for (let j = 0; j < k; j++) next[j] = (cur[j] + rk * cur[k - 1 - j]) / denom;
+    for (let j = 0; j < k; j++) cur[j] = next[j];
+  }
+  return worst;
 }
 
 /** True when the discount matrix's eigenvalues lie inside the (slightly widened) unit circle. */

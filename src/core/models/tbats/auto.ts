@@ -2,9 +2,9 @@
  * Automatic TBATS: the structure search of De Livera et al. (2011), §4.2, on AIC.
  *
  *  1. Harmonics. For each seasonal period in turn, K is chosen by AIC among fits with a trend,
- *     the transform as asked and white-noise errors (our search): a screen over K = 1–5, 7 and
- *     10 (and K_max), ended early after two screen points in a row that do not improve AIC,
- *     then the unvisited neighbours of every K within 2 AIC of the best, until none is left.
+ *     the transform as asked and white-noise errors (our search): every K from 1 to 5, then 7,
+ *     10 and K_max while each improves on the best, then the unvisited neighbours of every K
+ *     within 2 AIC of the best, until none is left.
  *     A screen rather than a walk from one start, because AIC over K is rarely unimodal: a
  *     sharp seasonal feature (the lunar-new-year dip) needs many harmonics even when the first
  *     few add little, and the recovery tests found a walk stopping one short of the best. Each
@@ -176,9 +176,12 @@ function adaptStart(start: TbatsParameters, s: TbatsStructure): TbatsParameters 
   };
 }
 
-/** Harmonics the screen visits (ours), how many worse points in a row end it, and the AIC band refined. */
-const SCREEN_HARMONICS = [1, 2, 3, 4, 5, 7, 10];
-const SCREEN_PATIENCE = 2;
+/**
+ * Harmonics the screen always visits, the larger ones it visits while they keep improving
+ * AIC, and the AIC band around the best whose neighbours are refined (ours).
+ */
+const SCREEN_ALWAYS = [1, 2, 3, 4, 5];
+const SCREEN_LARGE = [7, 10];
 const REFINE_BAND = 2;
 
 function harmonicsSearch(search: Search, base: TbatsStructure, periodIndex: number, kMax: number): number {
@@ -197,11 +200,11 @@ function harmonicsSearch(search: Search, base: TbatsStructure, periodIndex: numb
     }
     return false;
   };
-  // Screen upwards; stop after SCREEN_PATIENCE points in a row that do not improve.
-  let worse = 0;
-  for (const k of SCREEN_HARMONICS.filter((v) => v <= kMax).concat(kMax > 10 ? [kMax] : [])) {
-    if (tryK(k)) worse = 0;
-    else if (++worse >= SCREEN_PATIENCE) break;
+  // Every K up to 5 (the first few harmonics can add little before a sharp feature's harmonics
+  // add a lot, so no early stop there); then 7, 10 and K_max while each improves on the best.
+  for (const k of SCREEN_ALWAYS) tryK(k);
+  for (const k of SCREEN_LARGE.concat(kMax > 10 ? [kMax] : []).filter((v) => v <= kMax)) {
+    if (!tryK(k)) break;
   }
   // Refine: try the unvisited neighbours of every K within REFINE_BAND of the best, until no
   // new K enters the band (AIC over K has several dips when the screen is coarse).

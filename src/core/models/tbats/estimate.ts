@@ -30,6 +30,7 @@
  * needed 400–1700 and BFGS alone stopped early on flat directions (β → 0, ρ → 0).
  */
 import { bfgs, forwardGradient, nelderMead } from "../../math/optimise";
+import { EvaluationBudgetSpent } from "../../math/optimise/nelderMead";
 import { toBoundedScalar, toUnboundedScalar, type Bound } from "../../math/optimise";
 import { constrainStationary, unconstrainStationary } from "../sarima/polynomial";
 import { admissible, gammaWedge } from "./admissible";
@@ -317,13 +318,21 @@ export function estimate(prep: Prepared, s: TbatsStructure, fixedLambda: number 
   if (dim > 0) {
     const steps = initialSteps(s);
     const n = prep.y.length;
-    const g = (u: Float64Array): number => f(u) / n;
+    // The whole fit's budget is enforced here, since BFGS cannot see the gradient's calls:
+    // once it is spent the objective signals so and BFGS returns its best point.
+    const g = (u: Float64Array): number => {
+      if (obj.evaluations >= maxEval) throw new EvaluationBudgetSpent();
+      return f(u) / n;
+    };
     const polish = (from: Float64Array): void => {
+      // BFGS counts only its own calls, not the dim + 1 of each forward-difference gradient, so
+      // the budget left is handed over as iterations (each about dim + 3 evaluations).
       const left = Math.max(40, maxEval - obj.evaluations);
-      const q = bfgs(g, from, { maxEval: left, gTol: 1e-5, fTol: 1e-12, gradient: (u) => forwardGradient(g, u) });
+      const maxIter = Math.max(4, Math.floor(left / (dim + 3)));
+      const q = bfgs(g, from, { maxIter, maxEval: left, gTol: 1e-5, fTol: 1e-12, gradient: (u) => forwardGradient(g, u) });
       // Only a spent budget counts as not converged: BFGS also stops when the optimum sits on
       // the admissibility edge (no finite step left), which is the constrained optimum.
-      converged = q.converged || q.evaluations < left;
+      converged = q.converged || (q.iterations < maxIter && q.evaluations < left);
       if (q.f * n < best.f) best = { x: Float64Array.from(q.x), f: q.f * n };
     };
     const nm = nelderMead(f, u0, { maxEval: Math.min(maxEval, NM_EVALS_PER_PARAMETER * (dim + 1)), xTol: 1e-3, fTol: 1e-3, adaptive: dim > 4, initialStep: steps });

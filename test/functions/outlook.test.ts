@@ -15,6 +15,8 @@ import {
   toCustomFunctionsError,
 } from "../../src/functions/errors";
 import { table } from "../../src/core/report";
+import { analyse } from "../../src/core/analysis";
+import { readWeekly } from "../../src/core/series/intake";
 import { outlook, outlookRows, readCoverage } from "../../src/functions/functions";
 
 class FakeError {
@@ -143,6 +145,15 @@ describe("OUTLOOK", () => {
       expect(row[4]).toBeCloseTo(104 - Z95 * sd, TOL);
       expect(row[5]).toBeCloseTo(104 + Z95 * sd, TOL);
     });
+  });
+
+  it("takes the model codes: TBATS on three years of an invented lane gives analyse()'s own outlook", () => {
+    // 156 weeks of "Halden–Corvane" with an annual swing of period 365.25/7, no dates.
+    const lane = Array.from({ length: 156 }, (_, t) => [1800 + 120 * Math.sin((2 * Math.PI * t) / (365.25 / 7)) + 2 * t + 15 * Math.sin(1.7 * t)]);
+    const out = outlook([["Halden–Corvane"], ...lane], 4, "tbats");
+    const series = readWeekly([["Halden–Corvane"], ...lane]);
+    const want = analyse(series, { method: "tbats", horizon: 4, checks: false }).tables.outlook.rows;
+    expect(out.map((r) => r.slice(1))).toEqual(want.map((r) => r.slice(2)));
   });
 
   it("numbers the weeks ahead when no dates are given, and takes one coverage level", () => {

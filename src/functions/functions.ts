@@ -56,7 +56,16 @@ function readMethod(method: unknown): string | undefined {
   if (typeof method !== "string") {
     throw new ArgumentError("#VALUE!", "The method must be a method code written as text, such as \"lastyear\".");
   }
-  return method.trim();
+  const code = method.trim();
+  // "auto" backtests every method (seconds to a minute); on the calculation thread that would
+  // hold Excel up, so cells refuse it until the functions run through the engine's workers.
+  if (code.toLowerCase() === "auto") {
+    throw new ArgumentError(
+      "#VALUE!",
+      'A cell cannot use "auto" yet: it backtests every method, which takes too long to run inside a formula. Give a method code such as "tbats".',
+    );
+  }
+  return code;
 }
 
 function readDates(dates: unknown): unknown[][] | undefined {

@@ -209,6 +209,10 @@ describe("OUTLOOK", () => {
     const err = excelError(() => outlook(rates, 2, "crystalball"));
     expect(err.code).toBe("#VALUE!");
     expect(err.message).toMatch(/"crystalball" is not available/);
+    // "auto" is a backtest of every method: refused in a cell rather than holding Excel up.
+    const auto = excelError(() => outlook(rates, 2, " Auto "));
+    expect(auto.code).toBe("#VALUE!");
+    expect(auto.message).toMatch(/cannot use "auto" yet/);
   });
 
   it("gives #N/A for too little data", () => {

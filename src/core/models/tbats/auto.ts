@@ -2,9 +2,10 @@
  * Automatic TBATS: the structure search of De Livera et al. (2011), §4.2, on AIC.
  *
  *  1. Harmonics. For each seasonal period in turn, K is chosen by AIC among fits with a trend,
- *     the transform as asked and white-noise errors (our search): every K from 1 to 5, then 7,
- *     10 and K_max while each improves on the best, then the unvisited neighbours of every K
- *     within 2 AIC of the best, until none is left.
+ *     the transform as asked and white-noise errors (our search): K = 0 (the period left out:
+ *     a season must earn its seeds, or white noise would be given a pattern) and every K from
+ *     1 to 5, then 7, 10 and K_max while each improves on the best, then the unvisited
+ *     neighbours of every K within 2 AIC of the best, until none is left.
  *     A screen rather than a walk from one start, because AIC over K is rarely unimodal: a
  *     sharp seasonal feature (the lunar-new-year dip) needs many harmonics even when the first
  *     few add little, and the recovery tests found a walk stopping one short of the best. Each
@@ -185,12 +186,16 @@ const SCREEN_LARGE = [7, 10];
 const REFINE_BAND = 2;
 
 function harmonicsSearch(search: Search, base: TbatsStructure, periodIndex: number, kMax: number): number {
-  const withK = (k: number): TbatsStructure => ({ ...base, harmonics: base.harmonics.map((h, i) => (i === periodIndex ? k : h)) });
+  // K = 0 is the structure without this period at all: the season must earn its seeds.
+  const withK = (k: number): TbatsStructure =>
+    k === 0
+      ? { ...base, periods: base.periods.filter((_, i) => i !== periodIndex), harmonics: base.harmonics.filter((_, i) => i !== periodIndex) }
+      : { ...base, harmonics: base.harmonics.map((h, i) => (i === periodIndex ? k : h)) };
   const aicAt = new Map<number, number>();
   let best: TbatsFitted | null = null;
   let bestK = 0;
   const tryK = (k: number): boolean => {
-    if (k < 1 || k > kMax || aicAt.has(k)) return false;
+    if (k < 0 || k > kMax || aicAt.has(k)) return false;
     const f = search.fit(withK(k));
     aicAt.set(k, f ? f.aic : Infinity);
     if (f && (!best || f.aic < best.aic)) {
@@ -202,7 +207,7 @@ function harmonicsSearch(search: Search, base: TbatsStructure, periodIndex: numb
   };
   // Every K up to 5 (the first few harmonics can add little before a sharp feature's harmonics
   // add a lot, so no early stop there); then 7, 10 and K_max while each improves on the best.
-  for (const k of SCREEN_ALWAYS) tryK(k);
+  for (const k of [0, ...SCREEN_ALWAYS]) tryK(k);
   for (const k of SCREEN_LARGE.concat(kMax > 10 ? [kMax] : []).filter((v) => v <= kMax)) {
     if (!tryK(k)) break;
   }
@@ -211,7 +216,7 @@ function harmonicsSearch(search: Search, base: TbatsStructure, periodIndex: numb
   for (;;) {
     const bestAic = aicAt.get(bestK) ?? Infinity;
     const near = [...aicAt.entries()].filter(([, a]) => a <= bestAic + REFINE_BAND).map(([k]) => k);
-    const fresh = near.flatMap((k) => [k - 1, k + 1]).filter((k) => k >= 1 && k <= kMax && !aicAt.has(k));
+    const fresh = near.flatMap((k) => [k - 1, k + 1]).filter((k) => k >= 0 && k <= kMax && !aicAt.has(k));
     if (fresh.length === 0) break;
     for (const k of fresh) tryK(k);
   }
@@ -276,8 +281,11 @@ export function autoTbats(y: Float64Array, options: TbatsOptions = {}): TbatsFit
       const kMax = Math.min(kCap, maxHarmonicsFor(periods[i]));
       base.harmonics[i] = harmonicsSearch(search, base, i, kMax);
     }
-    // A period whose harmonics could not be fitted at all is dropped.
+    // A period whose best K is 0 (no harmonic earned its seeds, or none could be fitted) is dropped.
     const keep = base.harmonics.map((k) => k > 0);
+    periods.forEach((m, i) => {
+      if (!keep[i]) notes.push(`A ${m.toFixed(2)}-week pattern did not improve AIC at any number of harmonics, so it is not modelled.`);
+    });
     base.periods = periods.filter((_, i) => keep[i]);
     base.harmonics = base.harmonics.filter((k) => k > 0);
   }

@@ -148,3 +148,19 @@ describe("full default search", () => {
     expect(labels.some((l) => l.endsWith("without trend"))).toBe(true);
   });
 });
+
+describe("a season must earn its seeds", () => {
+  // Independent N(1000, 50²) weeks have no annual pattern. Without K = 0 among the candidates
+  // the search had to give them one, and chose 6 harmonics (measured on seed 3 with the default
+  // options, before K = 0 was added);
+  // with it, AIC keeps the pattern out in each of these seeds: an extra harmonic pair costs 4
+  // in AIC and gains a χ²₂ statistic, so a spurious pattern wins a given K with probability
+  // about 0.135, and the seeds here are checked one by one rather than hoped for.
+  test.each([3, 4, 5])("white noise, seed %i: no seasonality, and the notes say why", (seed) => {
+    const rng = new MersenneTwister(seed);
+    const y = Float64Array.from({ length: 300 }, () => 1000 + 50 * rng.normal());
+    const fit = autoTbats(y, { lambda: null, arma: false });
+    expect(fit.structure.periods).toEqual([]);
+    expect(fit.summary().notes).toContain("A 52.18-week pattern did not improve AIC at any number of harmonics, so it is not modelled.");
+  });
+});

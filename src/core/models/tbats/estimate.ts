@@ -356,3 +356,141 @@ export function estimate(prep: Prepared, s: TbatsStructure, fixedLambda: number 
   const sse = obj.sse(par);
   return { par, objective: best.f, sse, seed: Float64Array.from(obj.reg.seed), evaluations: obj.evaluations, converged };
 }
+
+/** Names of the natural parameters in summary order, with their values (parametersFrom's order). */
+export function namedParameters(par: TbatsParameters, s: TbatsStructure): { name: string; value: number }[] {
+  const out: { name: string; value: number }[] = [];
+  if (s.boxCox && par.lambda !== null) out.push({ name: "lambda", value: par.lambda });
+  out.push({ name: "alpha", value: par.alpha });
+  if (s.trend) out.push({ name: "beta", value: par.beta });
+  if (s.trend && s.damped) out.push({ name: "phi", value: par.phi });
+  s.periods.forEach((_, i) => {
+    const tag = s.periods.length > 1 ? `${i + 1}` : "";
+    out.push({ name: `gamma1${tag}`, value: par.gamma1[i] }, { name: `gamma2${tag}`, value: par.gamma2[i] });
+  });
+  par.ar.forEach((v, j) => out.push({ name: `ar${j + 1}`, value: v }));
+  par.ma.forEach((v, j) => out.push({ name: `ma${j + 1}`, value: v }));
+  return out;
+}
+
+/** Unconstrained coordinates beyond this size sit on a boundary of their range (σ(8) ≈ 0.9997). */
+const BOUNDARY_COORDINATE = 8;
+
+/**
+ * Standard errors of the natural parameters from the observed information of the profile
+ * likelihood (seeds and σ² concentrated out, which leaves the other parameters' covariance
+ * unchanged: the inverse of a profile Hessian is the matching block of the full inverse).
+ * The Hessian of −ℓ = L* ÷ 2 is taken by central differences in the unconstrained coordinates
+ * (step 1e-4·max(1, |u|)), inverted by Cholesky, and carried to the natural parameters by the
+ * delta method with a central-difference Jacobian. Coordinates on a boundary of their range (a
+ * weight driven to 0, a seasonal size to 0) are held fixed; parameters that depend only on
+ * them, and all of them when the Hessian is not positive definite, get NaN.
+ */
+export function standardErrors(y: Float64Array, s: TbatsStructure, par: TbatsParameters): Map<string, number> {
+  const names = namedParameters(par, s).map((p) => p.name);
+  const out = new Map<string, number>(names.map((n) => [n, NaN]));
+  const fixedLambda = s.boxCox ? null : par.lambda;
+  const obj = new Objective(prepare(y), s);
+  const u0 = unconstrainedFrom(par, s);
+  const free: number[] = [];
+  for (let i = 0; i < u0.length; i++) if (Math.abs(u0[i]) < BOUNDARY_COORDINATE) free.push(i);
+  const d = free.length;
+  if (d === 0) return out;
+  const step = free.map((i) => 1e-4 * Math.max(1, Math.abs(u0[i])));
+  const at = (di: number, a: number, dj: number, b: number): number => {
+    const u = Float64Array.from(u0);
+    if (di >= 0) u[free[di]] += a;
+    if (dj >= 0) u[free[dj]] += b;
+    return obj.value(parametersFrom(u, s, fixedLambda)) / 2;
+  };
+  const H = new Float64Array(d * d);
+  const f0 = at(-1, 0, -1, 0);
+  for (let i = 0; i < d; i++) {
+    const hi = step[i];
+    H[i * d + i] = (at(i, hi, -1, 0) - 2 * f0 + at(i, -hi, -1, 0)) / (hi * hi);
+    for (let j = i + 1; j < d; j++) {
+      const hj = step[j];
+      const v = (at(i, hi, j, hj) - at(i, hi, j, -hj) - at(i, -hi, j, hj) + at(i, -hi, j, -hj)) / (4 * hi * hj);
+      H[i * d + j] = v;
+      H[j * d + i] = v;
+    }
+  }
+  if (!H.every(Number.isFinite)) return out;
+  // Cholesky H = LLᵀ, then the inverse column by column.
+  const L = new Float64Array(d * d);
+  for (let i = 0; i < d; i++) {
+    for (let j = 0; j <= i; j++) {
+      let sum = H[i * d + j];
+      for (let k = 0; k < j; k++) sum -= L[i * d + k] * L[j * d + k];
+      if (i === j) {
+        if (!(sum > 0)) return out;
+        L[i * d + i] = Math.sqrt(sum);
+      } else L[i * d + j] = sum / L[j * d + j];
+    }
+  }
+  const inv = new Float64Array(d * d);
+  const col = new Float64Array(d);
+  for (let c = 0; c < d; c++) {
+    col.fill(0);
+    col[c] = 1;
+    for (let i = 0; i < d; i++) {
+      let sum = col[i];
+      for (let k = 0; k < i; k++) sum -= L[i * d + k] * col[k];
+      col[i] = sum / L[i * d + i];
+    }
+    for (let i = d - 1; i >= 0; i--) {
+      let sum = col[i];
+      for (let k = i + 1; k < d; k++) sum -= L[k * d + i] * col[k];
+      col[i] = sum / L[i * d + i];
+    }
+    for (let i = 0; i < d; i++) inv[i * d + c] = col[i];
+  }
+  // Jacobian of the natural parameters with respect to the free coordinates.
+  const values = (u: Float64Array): number[] => namedParameters(parametersFrom(u, s, fixedLambda), s).map((p) => p.value);
+  const m = names.length;
+  const J = new Float64Array(m * d);
+  for (let j = 0; j < d; j++) {
+    const up = Float64Array.from(u0);
+    const dn = Float64Array.from(u0);
+    up[free[j]] += step[j];
+    dn[free[j]] -= step[j];
+    const a = values(up);
+    const b = values(dn);
+    for (let r = 0; r < m; r++) J[r * d + j] = (a[r] - b[r]) / (2 * step[j]);
+  }
+  const owners = ownCoordinates(s);
+  const isFree = new Set(free);
+  for (let r = 0; r < m; r++) {
+    // A parameter whose own coordinate sits on a boundary has no standard error (β with its
+    // share of α at 0 would otherwise inherit a tiny one from α).
+    if (!owners[r].every((c) => isFree.has(c))) continue;
+    let v = 0;
+    for (let i = 0; i < d; i++) {
+      for (let j = 0; j < d; j++) v += J[r * d + i] * inv[i * d + j] * J[r * d + j];
+    }
+    if (v >= 0) out.set(names[r], Math.sqrt(v));
+  }
+  return out;
+}
+
+/** For each named parameter (namedParameters' order), the unconstrained coordinates it is made from. */
+function ownCoordinates(s: TbatsStructure): number[][] {
+  const out: number[][] = [];
+  let i = 0;
+  if (s.boxCox) out.push([i++]);
+  const alpha = i++;
+  out.push([alpha]);
+  if (s.trend) out.push([alpha, i++]);
+  if (s.trend && s.damped) out.push([i++]);
+  for (let k = 0; k < s.periods.length; k++) {
+    const pair = [i, i + 1];
+    out.push(pair, pair);
+    i += 2;
+  }
+  const ar = Array.from({ length: s.p }, (_, k) => i + k);
+  i += s.p;
+  const ma = Array.from({ length: s.q }, (_, k) => i + k);
+  for (let k = 0; k < s.p; k++) out.push(ar);
+  for (let k = 0; k < s.q; k++) out.push(ma);
+  return out;
+}

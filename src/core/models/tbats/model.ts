@@ -18,7 +18,7 @@ import type { ReportTable } from "../../report";
 import type { FitSummary, Fitted, Forecast, ParameterRow, SearchedStructure, UpdateOptions } from "../types";
 import { tbatsWeekFactors } from "./factors";
 import { advance, filterPass, predictFrom, type FilterPass } from "./filter";
-import { estimate, parameterCount, prepare, transformInto } from "./estimate";
+import { estimate, namedParameters, parameterCount, prepare, standardErrors, transformInto } from "./estimate";
 import { layoutOf, structureLabel, structureWords, type StateLayout, type TbatsParameters, type TbatsStructure } from "./structure";
 
 export interface TbatsCandidate {
@@ -62,6 +62,7 @@ export class TbatsFitted implements Fitted {
   /** Transformed series and the filter's record over it. */
   readonly z: Float64Array;
   readonly pass: FilterPass;
+  private errorCache?: Map<string, number>;
 
   constructor(
     readonly y: Float64Array,
@@ -203,17 +204,12 @@ export class TbatsFitted implements Fitted {
   summary(): FitSummary {
     const s = this.structure;
     const p = this.par;
-    const parameters: ParameterRow[] = [];
-    if (p.lambda !== null) parameters.push({ name: "lambda", value: p.lambda });
-    parameters.push({ name: "alpha", value: p.alpha });
-    if (s.trend) parameters.push({ name: "beta", value: p.beta });
-    if (s.trend && s.damped) parameters.push({ name: "phi", value: p.phi });
-    s.periods.forEach((m, i) => {
-      const tag = s.periods.length > 1 ? `${i + 1}` : "";
-      parameters.push({ name: `gamma1${tag}`, value: p.gamma1[i] }, { name: `gamma2${tag}`, value: p.gamma2[i] });
+    const se = this.parameterErrors();
+    const parameters: ParameterRow[] = namedParameters(p, s).map((q) => {
+      const e = se.get(q.name);
+      return e !== undefined && Number.isFinite(e) ? { name: q.name, value: q.value, se: e } : { name: q.name, value: q.value };
     });
-    p.ar.forEach((v, j) => parameters.push({ name: `ar${j + 1}`, value: v }));
-    p.ma.forEach((v, j) => parameters.push({ name: `ma${j + 1}`, value: v }));
+    if (!s.boxCox && p.lambda !== null) parameters.unshift({ name: "lambda", value: p.lambda });
     parameters.push({ name: "sigma2", value: this.sigma2 });
     parameters.push({ name: "log-likelihood", value: this.logLik });
     parameters.push({ name: "AIC", value: this.aic });
@@ -224,6 +220,12 @@ export class TbatsFitted implements Fitted {
     );
     if (this.options.converged === false) notes.push("The optimiser stopped at its evaluation budget before meeting its tolerances; the fit is the best point it found.");
     return { method: "tbats", structure: structureLabel(s, p), parameters, armaDf: s.p + s.q, notes };
+  }
+
+  /** Standard errors by parameter name (computed once, on first use; NaN where not defined). */
+  parameterErrors(): Map<string, number> {
+    if (!this.errorCache) this.errorCache = standardErrors(this.y, this.structure, this.par);
+    return this.errorCache;
   }
 
   /** Candidates the structure search fitted, best first. */

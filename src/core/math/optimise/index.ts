@@ -2,6 +2,7 @@
 export { nelderMead } from "./nelderMead";
 export type { NelderMeadOptions, MinimiseResult, Objective } from "./nelderMead";
 export { bfgs, forwardGradient, numericalGradient } from "./bfgs";
+export { centralHessian } from "./hessian";
 export type { BfgsOptions, BfgsResult } from "./bfgs";
 export {
   toBounded,

@@ -22,6 +22,7 @@
  * (Kohn & Ansley, 1985; Harvey, 1989, §3.4.2).
  * Innovation variances are in units of σ² (R scaled to Var ε = 1); σ² is concentrated out.
  */
+import { symmetricInverse } from "../../math/symmetric";
 import { stationaryCovariance, stationaryFirstColumn } from "./acvf";
 
 export interface FilterOutput {
@@ -193,7 +194,11 @@ export function glsLikelihood(out: FilterOutput, fixedBeta?: ArrayLike<number>):
         A[j * k + i] = A[i * k + j];
       }
     }
-    inv = symmetricInverse(A, k);
+    try {
+      inv = symmetricInverse(A, k);
+    } catch {
+      throw new RangeError("the regressors are collinear after differencing");
+    }
     for (let i = 0; i < k; i++) {
       let s = 0;
       for (let j = 0; j < k; j++) s += inv[i * k + j] * b[j];
@@ -228,40 +233,3 @@ export function logLikAtSigma2(out: FilterOutput, ssr: number, sigma2: number): 
   return -0.5 * out.n * Math.log(2 * Math.PI * sigma2) - 0.5 * out.sumLogF - (0.5 * ssr) / sigma2;
 }
 
-/** Inverse of a symmetric positive-definite k×k matrix by Cholesky; RangeError when singular. */
-export function symmetricInverse(A: Float64Array, k: number): Float64Array {
-  const L = new Float64Array(k * k);
-  for (let i = 0; i < k; i++) {
-    for (let j = 0; j <= i; j++) {
-      let s = A[i * k + j];
-      for (let m = 0; m < j; m++) s -= L[i * k + m] * L[j * k + m];
-      if (i === j) {
-        if (!(s > 1e-12 * Math.max(1, Math.abs(A[i * k + i])))) {
-          throw new RangeError("the regressors are collinear after differencing");
-        }
-        L[i * k + i] = Math.sqrt(s);
-      } else {
-        L[i * k + j] = s / L[j * k + j];
-      }
-    }
-  }
-  // inv = L⁻ᵀ L⁻¹: invert L column by column.
-  const Li = new Float64Array(k * k);
-  for (let c = 0; c < k; c++) {
-    for (let i = c; i < k; i++) {
-      let s = i === c ? 1 : 0;
-      for (let m = c; m < i; m++) s -= L[i * k + m] * Li[m * k + c];
-      Li[i * k + c] = s / L[i * k + i];
-    }
-  }
-  const inv = new Float64Array(k * k);
-  for (let i = 0; i < k; i++) {
-    for (let j = 0; j <= i; j++) {
-      let s = 0;
-      for (let m = i; m < k; m++) s += Li[m * k + i] * Li[m * k + j];
-      inv[i * k + j] = s;
-      inv[j * k + i] = s;
-    }
-  }
-  return inv;
-}

@@ -19,7 +19,9 @@ import type { Rng } from "../../math/rng";
 import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
 import type { FitSummary, Fitted, Forecast, ParameterRow, SearchedStructure, UpdateOptions } from "../types";
 import { aiccOf, estimate, evaluate, prepare, unconstrainedFrom, type ArmaCoefficients, type Estimate, type Prepared } from "./estimate";
-import { adjustedInnovation, armaFilter, logLikAtSigma2, symmetricInverse } from "./filter";
+import { centralHessian } from "../../math/optimise";
+import { symmetricInverse } from "../../math/symmetric";
+import { adjustedInnovation, armaFilter, logLikAtSigma2 } from "./filter";
 import { expandAr, expandMa, multiplyAr, psiWeights } from "./polynomial";
 import { orderLabel, regressorColumns, validateSpec, type SarimaSpec } from "./spec";
 
@@ -268,25 +270,7 @@ export class SarimaFitted implements Fitted {
         return NaN;
       }
     };
-    const h = 1e-4;
-    const f0 = f(flat);
-    const H = new Float64Array(k * k);
-    for (let i = 0; i < k; i++) {
-      for (let j = 0; j <= i; j++) {
-        const at = (di: number, dj: number): number => {
-          const v = flat.slice();
-          v[i] += di;
-          v[j] += dj;
-          return f(v);
-        };
-        const val =
-          i === j
-            ? (at(h, 0) - 2 * f0 + at(-h, 0)) / (h * h)
-            : (at(h, h) - at(h, -h) - at(-h, h) + at(-h, -h)) / (4 * h * h);
-        H[i * k + j] = val;
-        H[j * k + i] = val;
-      }
-    }
+    const H = centralHessian((v) => f(Array.from(v)), flat, 1e-4);
     try {
       // At a maximum −ℓ's Hessian is positive definite; Cholesky refuses it otherwise.
       const inv = symmetricInverse(H, k);

@@ -29,7 +29,8 @@
  * best optimum that long Nelder–Mead runs found in 150–400 evaluations, where Nelder–Mead alone
  * needed 400–1700 and BFGS alone stopped early on flat directions (β → 0, ρ → 0).
  */
-import { bfgs, forwardGradient, nelderMead } from "../../math/optimise";
+import { bfgs, centralHessian, forwardGradient, nelderMead } from "../../math/optimise";
+import { symmetricInverse } from "../../math/symmetric";
 import { EvaluationBudgetSpent } from "../../math/optimise/nelderMead";
 import { toBoundedScalar, toUnboundedScalar, type Bound } from "../../math/optimise";
 import { constrainStationary, unconstrainStationary } from "../sarima/polynomial";
@@ -397,53 +398,19 @@ export function standardErrors(y: Float64Array, s: TbatsStructure, par: TbatsPar
   const d = free.length;
   if (d === 0) return out;
   const step = free.map((i) => 1e-4 * Math.max(1, Math.abs(u0[i])));
-  const at = (di: number, a: number, dj: number, b: number): number => {
+  // −ℓ as a function of the free coordinates, the others held at the optimum.
+  const nll = (v: Float64Array): number => {
     const u = Float64Array.from(u0);
-    if (di >= 0) u[free[di]] += a;
-    if (dj >= 0) u[free[dj]] += b;
+    for (let i = 0; i < d; i++) u[free[i]] = v[i];
     return obj.value(parametersFrom(u, s, fixedLambda)) / 2;
   };
-  const H = new Float64Array(d * d);
-  const f0 = at(-1, 0, -1, 0);
-  for (let i = 0; i < d; i++) {
-    const hi = step[i];
-    H[i * d + i] = (at(i, hi, -1, 0) - 2 * f0 + at(i, -hi, -1, 0)) / (hi * hi);
-    for (let j = i + 1; j < d; j++) {
-      const hj = step[j];
-      const v = (at(i, hi, j, hj) - at(i, hi, j, -hj) - at(i, -hi, j, hj) + at(i, -hi, j, -hj)) / (4 * hi * hj);
-      H[i * d + j] = v;
-      H[j * d + i] = v;
-    }
-  }
+  const H = centralHessian(nll, free.map((i) => u0[i]), step);
   if (!H.every(Number.isFinite)) return out;
-  // Cholesky H = LLᵀ, then the inverse column by column.
-  const L = new Float64Array(d * d);
-  for (let i = 0; i < d; i++) {
-    for (let j = 0; j <= i; j++) {
-      let sum = H[i * d + j];
-      for (let k = 0; k < j; k++) sum -= L[i * d + k] * L[j * d + k];
-      if (i === j) {
-        if (!(sum > 0)) return out;
-        L[i * d + i] = Math.sqrt(sum);
-      } else L[i * d + j] = sum / L[j * d + j];
-    }
-  }
-  const inv = new Float64Array(d * d);
-  const col = new Float64Array(d);
-  for (let c = 0; c < d; c++) {
-    col.fill(0);
-    col[c] = 1;
-    for (let i = 0; i < d; i++) {
-      let sum = col[i];
-      for (let k = 0; k < i; k++) sum -= L[i * d + k] * col[k];
-      col[i] = sum / L[i * d + i];
-    }
-    for (let i = d - 1; i >= 0; i--) {
-      let sum = col[i];
-      for (let k = i + 1; k < d; k++) sum -= L[k * d + i] * col[k];
-      col[i] = sum / L[i * d + i];
-    }
-    for (let i = 0; i < d; i++) inv[i * d + c] = col[i];
+  let inv: Float64Array;
+  try {
+    inv = symmetricInverse(H, d);
+  } catch {
+    return out; // not positive definite: no standard errors
   }
   // Jacobian of the natural parameters with respect to the free coordinates.
   const values = (u: Float64Array): number[] => namedParameters(parametersFrom(u, s, fixedLambda), s).map((p) => p.value);

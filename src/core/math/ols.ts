@@ -227,16 +227,19 @@ export class QrFactor {
     return qty;
   }
 
-  /** Back substitution R β_s = (Qᵀy)[0..k), then β = D⁻¹β_s. */
-  private coefFromQty(qty: Float64Array): Float64Array {
+  /**
+   * Back substitution R β_s = (Qᵀy)[0..kk) on the leading kk×kk block of R (all of it by
+   * default), then β = D⁻¹β_s.
+   */
+  private coefFromQty(qty: Float64Array, kk = this.k): Float64Array {
     const { k, R, scale } = this;
-    const betaS = new Float64Array(k);
-    for (let j = k - 1; j >= 0; j--) {
+    const betaS = new Float64Array(kk);
+    for (let j = kk - 1; j >= 0; j--) {
       let s = qty[j];
-      for (let p = j + 1; p < k; p++) s -= R[j * k + p] * betaS[p];
+      for (let p = j + 1; p < kk; p++) s -= R[j * k + p] * betaS[p];
       betaS[j] = s / R[j * k + j];
     }
-    for (let j = 0; j < k; j++) betaS[j] /= scale[j];
+    for (let j = 0; j < kk; j++) betaS[j] /= scale[j];
     return betaS;
   }
 
@@ -289,13 +292,7 @@ export class QrFactor {
       reflect(this.vs[j], this.vtvs[j], j, qty);
       let ssr = 0;
       for (let i = kk; i < n; i++) ssr += qty[i] * qty[i];
-      const coef = new Float64Array(kk);
-      for (let a = kk - 1; a >= 0; a--) {
-        let s = qty[a];
-        for (let p = a + 1; p < kk; p++) s -= R[a * k + p] * coef[p];
-        coef[a] = s / R[a * k + a];
-      }
-      for (let a = 0; a < kk; a++) coef[a] /= scale[a];
+      const coef = this.coefFromQty(qty, kk);
       // (R⁻¹R⁻ᵀ) of the leading block, last diagonal entry: (1/R_jj)², as in covariance().
       const rinv = 1 / R[j * k + j];
       const sigma2 = ssr / (n - kk);

@@ -10,7 +10,7 @@ import type { WeeklySeries } from "./series/types";
 import { WEEKDAY_NAMES } from "./series/wording";
 import { getModel } from "./models/registry";
 import type { SearchedStructure } from "./models/types";
-import { modeLabel } from "./evaluate/backtest";
+import { modePhrase } from "./evaluate/backtest";
 import { DEFAULT_TEST_WEEKS, type BacktestOptions } from "./evaluate/plan";
 import { backtest, type BacktestControl } from "./evaluate/run";
 import { bestBy, scoreRuns } from "./evaluate/score";
@@ -165,7 +165,7 @@ function runBacktest(
   const label = getModel(chosen).label;
   const note =
     `Chosen by backtest: ${label} had the lowest ${opts.choose.toUpperCase()} averaged over 1–${result.plan.horizon} weeks ahead, ` +
-    `from every week of the last ${result.plan.windows.length * (result.plan.windows[0].last - result.plan.windows[0].first + 1)} weeks (re-estimated ${modeLabel(mode)}).`;
+    `from every week of the last ${result.plan.windows.length * (result.plan.windows[0].last - result.plan.windows[0].first + 1)} weeks (${modePhrase(mode)}).`;
   return { tables, chosen, note };
 }
 

@@ -11,7 +11,7 @@
 import { analyse } from "../core/analysis";
 import type { AnalysisOptions, Report } from "../core/analysis";
 import { resolveOptions } from "../core/analysis";
-import { runWindow } from "../core/evaluate/backtest";
+import { modePhrase, runWindow } from "../core/evaluate/backtest";
 import type { BacktestPlan, BacktestRun, RefitMode } from "../core/evaluate/backtest";
 import { getModel } from "../core/models/registry";
 import type { WeeklySeries } from "../core/series/types";
@@ -70,12 +70,6 @@ function analyseLabel(input: AnalyseInput): string {
   }
 }
 
-/** How a refit mode reads inside a progress sentence. */
-export function modePhrase(mode: RefitMode): string {
-  if (mode === "every") return "re-estimated every week";
-  if (mode === "fixed") return "parameters kept from the first origin";
-  return `re-estimated every ${mode} weeks`;
-}
 
 const analyseJob: JobDefinition<AnalyseInput, Report> = {
   title: (input) => `${analyseLabel(input)} analysis`,

@@ -94,6 +94,13 @@ export function modeLabel(mode: RefitMode): string {
   return `every ${mode} weeks`;
 }
 
+/** How a refit mode reads inside a sentence ("Backtesting TBATS, re-estimated every week"). */
+export function modePhrase(mode: RefitMode): string {
+  if (mode === "every") return "re-estimated every week";
+  if (mode === "fixed") return "parameters kept from the first origin";
+  return `re-estimated every ${mode} weeks`;
+}
+
 function reestimateAt(mode: RefitMode, step: number): boolean {
   if (mode === "every") return true;
   if (mode === "fixed") return false;

@@ -3,7 +3,7 @@
  * then the combinations from their members, with one progress stream. The engine runs the same
  * runs in parallel workers (src/engine) and assembles them with `assembleBacktest`.
  */
-import { BacktestCancelled, combineRuns, modeLabel, runWindow, type BacktestPlan, type BacktestRun, type ModelLookup } from "./backtest";
+import { BacktestCancelled, combineRuns, modePhrase, runWindow, type BacktestPlan, type BacktestRun, type ModelLookup } from "./backtest";
 import { planBacktest, type BacktestOptions } from "./plan";
 
 export interface BacktestResult {
@@ -48,7 +48,7 @@ export function assembleBacktest(plan: BacktestPlan, runs: BacktestRun[], lookup
 }
 
 export function sentenceFor(label: string, mode: BacktestPlan["modes"][number], done: number, total: number): string {
-  return `Backtesting ${label}, re-estimated ${modeLabel(mode)}: origin ${done} of ${total}.`;
+  return `Backtesting ${label}, ${modePhrase(mode)}: origin ${done} of ${total}.`;
 }
 
 export function backtest(y: Float64Array, options: BacktestOptions, lookup: ModelLookup, control: BacktestControl = {}): BacktestResult {

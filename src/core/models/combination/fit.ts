@@ -9,7 +9,7 @@ import { median } from "../../math/median";
 import { MersenneTwister, type Rng } from "../../math/rng";
 import { InputError, isInputError } from "../../series/errors";
 import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
-import { quantileSorted } from "../nnar/ensemble";
+import { quantileSorted } from "../../math/quantile";
 import type { FitSummary, Fitted, Forecast, MethodCode, ModelSpec, UpdateOptions } from "../types";
 import { Member, allotPaths, fitMembers, inverseMseWeights, opening, scoreMembers } from "./members";
 import {

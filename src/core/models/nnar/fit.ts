@@ -11,6 +11,7 @@
  * what the networks see. fitted and residuals are on the data scale (residual = y − fitted);
  * sigma2 and the bootstrap errors are on the x scale, as summary() says.
  */
+import { quantileSorted } from "../../math/quantile";
 import { MersenneTwister, Rng } from "../../math/rng";
 import { InputError } from "../../series/errors";
 import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
@@ -21,7 +22,6 @@ import {
   derivedSeeds,
   ensembleFitted,
   pointPath,
-  quantileSorted,
   samplePaths,
   startingWeights,
   train,

@@ -12,7 +12,7 @@ import { getModel } from "./models/registry";
 import type { SearchedStructure } from "./models/types";
 import { modePhrase } from "./evaluate/backtest";
 import { DEFAULT_TEST_WEEKS, type BacktestOptions } from "./evaluate/plan";
-import { backtest, type BacktestControl } from "./evaluate/run";
+import { backtest, type BacktestControl, type BacktestResult } from "./evaluate/run";
 import { bestBy, scoreRuns } from "./evaluate/score";
 import { backtestTables, type BacktestTables } from "./evaluate/tables";
 import type { Cell, ReportTable } from "./report";
@@ -74,6 +74,8 @@ export interface Report {
   lastWeek: string | null;
   /** The options actually used, after defaults. */
   options: ResolvedOptions;
+  /** The method that made the outlook: its code (the backtest's pick for "auto"), name and fitted structure. */
+  model: { method: string; label: string; structure: string };
 }
 
 export const MAX_HORIZON = 260;
@@ -136,14 +138,12 @@ export function searchTable(label: string, tried: SearchedStructure[]): ReportTa
 export const AUTO_CANDIDATES = ["tbats", "sarima", "nnar", "combo", "lastyear"];
 
 /**
- * The backtest of an analysis and, for "auto", the method it picks. Candidates that need more
- * weeks than the first origin offers are left out (the seasonal naive needs two years, say).
+ * The backtest options an analysis runs with: the caller's, with the methods and levels
+ * filled in. For "auto" without a list, the candidates that the first origin has weeks enough
+ * for (the seasonal naive needs two years, say). A caller that runs the backtest elsewhere (the
+ * engine's pool) runs exactly these and hands the result to analyse().
  */
-function runBacktest(
-  series: WeeklySeries,
-  opts: ResolvedOptions,
-  control: AnalysisControl,
-): { tables: BacktestTables; chosen: string | null; note: string | null } {
+export function backtestOptionsFor(series: WeeklySeries, opts: ResolvedOptions): BacktestOptions {
   const asked = opts.backtest ?? {};
   const n = series.values.length;
   let methods = asked.methods;
@@ -155,7 +155,26 @@ function runBacktest(
       throw new InputError("TOO_FEW_POINTS", `A backtest needs more weeks before its test window; the series has ${n}. Use fewer test weeks.`);
     }
   }
-  const result = backtest(series.values, { ...asked, methods, levels: asked.levels ?? opts.levels }, getModel, control);
+  return { ...asked, methods, levels: asked.levels ?? opts.levels };
+}
+
+/** Whether an analysis with these options runs a backtest. */
+export function needsBacktest(opts: ResolvedOptions): boolean {
+  return opts.method === "auto" || opts.backtest !== null;
+}
+
+/** The backtest of an analysis (run here, or given) and, for "auto", the method it picks. */
+function runBacktest(
+  series: WeeklySeries,
+  opts: ResolvedOptions,
+  control: AnalysisControl,
+  given: BacktestResult | undefined,
+): { tables: BacktestTables; chosen: string | null; note: string | null } {
+  const n = series.values.length;
+  const result = given ?? backtest(series.values, backtestOptionsFor(series, opts), getModel, control);
+  if (result.plan.n !== n) {
+    throw new Error(`analyse: the backtest given was planned for ${result.plan.n} weeks, the series has ${n}`);
+  }
   const dated = series.dates.length === n && n > 0;
   const tables = backtestTables(series.values, result, dated ? series.dates : null);
   if (opts.method !== "auto") return { tables, chosen: null, note: null };
@@ -169,10 +188,16 @@ function runBacktest(
   return { tables, chosen, note };
 }
 
-export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, control: AnalysisControl = {}): Report {
+/** What a caller may hand analyse() ready-made. */
+export interface AnalysisGiven {
+  /** The backtest of backtestOptionsFor(series, resolved options), run elsewhere (the engine's pool). */
+  backtest?: BacktestResult;
+}
+
+export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, control: AnalysisControl = {}, given: AnalysisGiven = {}): Report {
   const opts = resolveOptions(series, options);
   let bt: { tables: BacktestTables; chosen: string | null; note: string | null } | null = null;
-  if (opts.method === "auto" || opts.backtest) bt = runBacktest(series, opts, control);
+  if (needsBacktest(opts)) bt = runBacktest(series, opts, control, given.backtest);
   const code = bt?.chosen ?? opts.method;
   const model = getModel(code);
   const n = series.values.length;
@@ -231,5 +256,6 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
     warnings: [...series.warnings, ...(bt?.note ? [bt.note] : []), ...summary.notes, ...checks.skipped],
     lastWeek: last ? isoDate(last) : null,
     options: opts,
+    model: { method: code, label: model.label, structure: summary.structure },
   };
 }

@@ -6,6 +6,11 @@ export interface ReportTable {
   columns: string[];
   rows: Cell[][];
   notes: string[];
+  /**
+   * Columns whose values differ from run to run on the same inputs (timings). Sinks that
+   * promise byte-identical output for identical inputs (the batch runner's JSON) leave them out.
+   */
+  varying?: string[];
 }
 
 export function table(title: string, columns: string[], rows: Cell[][], notes: string[] = []): ReportTable {

@@ -13,6 +13,7 @@ import type { AnalysisOptions, Report } from "../core/analysis";
 import { resolveOptions } from "../core/analysis";
 import { modePhrase, runWindow } from "../core/evaluate/backtest";
 import type { BacktestPlan, BacktestRun, RefitMode } from "../core/evaluate/backtest";
+import type { BacktestResult } from "../core/evaluate/run";
 import { getModel } from "../core/models/registry";
 import type { WeeklySeries } from "../core/series/types";
 
@@ -34,6 +35,8 @@ export interface AnalyseInput {
   /** As structured-cloned: Dates stay Dates, values a Float64Array. */
   series: WeeklySeries;
   options: AnalysisOptions;
+  /** The analysis's backtest, already run (by backtestInEngine over the pool); see analysis.ts. */
+  backtest?: BacktestResult;
 }
 
 export interface BacktestRunInput {
@@ -77,7 +80,8 @@ const analyseJob: JobDefinition<AnalyseInput, Report> = {
     const label = analyseLabel(input);
     const what = input.series.name ? `${input.series.name}` : "the series";
     ctx.progress(0, `Analysing ${what} with ${label}`);
-    const report = analyse(input.series, input.options, { progress: (f, s) => ctx.progress(f, s), cancelled: () => ctx.cancelled() });
+    const control = { progress: (f: number, s: string) => ctx.progress(f, s), cancelled: () => ctx.cancelled() };
+    const report = analyse(input.series, input.options, control, input.backtest ? { backtest: input.backtest } : {});
     ctx.progress(1, `Analysed ${what} with ${label}`);
     return report;
   },

@@ -10,7 +10,7 @@ import { isInputError } from "../series/errors";
 import type { WeeklySeries } from "../series/types";
 import { nonlinearitySummary } from "./nonlinearity";
 import { residualChecks } from "./residuals";
-import { seasonalityAnalysis } from "./seasonality";
+import { seasonalityAnalysis, weekYearTable } from "./seasonality";
 import { unitRootSummary } from "./unitroot/integration";
 
 export interface CheckTables {
@@ -18,6 +18,8 @@ export interface CheckTables {
   integration?: ReportTable;
   seasonStrength?: ReportTable;
   weekFactors?: ReportTable;
+  /** Mean rate by ISO week (rows) and ISO year (columns): the season's picture (radar chart). */
+  weekYear?: ReportTable;
   nonlinearity?: ReportTable;
   residualTests?: ReportTable;
   correlogram?: ReportTable;
@@ -79,6 +81,7 @@ export function runChecks(series: WeeklySeries, model?: ModelResiduals): ChecksR
     const s = seasonalityAnalysis(series);
     [tables.seasonStrength, tables.weekFactors] = s.tables;
     if (s.seasonalReal) adjusted = s.adjusted;
+    if (series.dates.length === y.length) tables.weekYear = weekYearTable(series);
   });
   const tested: Float64Array = adjusted ?? y;
   const adjustNote =

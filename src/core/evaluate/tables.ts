@@ -86,9 +86,12 @@ export function backtestTables(y: Float64Array, result: BacktestResult, dates: D
   const costRows: Cell[][] = runs
     .filter((r) => !plan.combos.some((c) => c.code === r.method))
     .map((r) => [r.label, modeLabel(r.mode), windowLabel(r.window), r.fits, r.updates, r.milliseconds / 1000]);
-  const cost = table("Backtest cost", ["Method", "Re-estimated", "Origins from", "Fits", "Weeks filtered in", "Seconds"], costRows, [
-    "Fits count the first fit of each window and every re-estimation; seconds are the time spent fitting and forecasting on this machine, so they vary from run to run.",
-  ]);
+  const cost: ReportTable = {
+    ...table("Backtest cost", ["Method", "Re-estimated", "Origins from", "Fits", "Weeks filtered in", "Seconds"], costRows, [
+      "Fits count the first fit of each window and every re-estimation; seconds are the time spent fitting and forecasting on this machine, so they vary from run to run.",
+    ]),
+    varying: ["Seconds"],
+  };
 
   const originRows: Cell[][] = [];
   for (const r of runs as BacktestRun[]) {

@@ -1,0 +1,28 @@
+/**
+ * An analysis run by the engine with its backtest spread over the pool: the backtest's
+ * (method, mode, window) runs go to all workers (backtestInEngine), and the analysis job then
+ * fits the chosen method with that result in hand, so "auto" on one series uses every core
+ * instead of one. The report is the one analyse() gives on one thread, bit for bit, apart from
+ * the cost table's seconds.
+ */
+import { backtestOptionsFor, needsBacktest, resolveOptions, type AnalysisOptions, type Report } from "../core/analysis";
+import type { WeeklySeries } from "../core/series/types";
+import type { Engine, ProgressListener, RunOptions } from "./api";
+import { backtestInEngine } from "./backtest";
+
+/** Share of the progress bar given to the backtest when there is one (it is most of the work). */
+const BACKTEST_SHARE = 0.9;
+
+export async function analyseInEngine(engine: Engine, series: WeeklySeries, options: AnalysisOptions, run: RunOptions = {}): Promise<Report> {
+  const resolved = resolveOptions(series, options);
+  const report = run.onProgress;
+  if (!needsBacktest(resolved)) return engine.run("analyse", { series, options }, run);
+  const scaled = (from: number, share: number): ProgressListener | undefined =>
+    report ? (f, sentence) => report(from + share * f, sentence) : undefined;
+  const backtest = await backtestInEngine(engine, series.values, backtestOptionsFor(series, resolved), {
+    onProgress: scaled(0, BACKTEST_SHARE),
+    signal: run.signal,
+    cache: run.cache,
+  });
+  return engine.run("analyse", { series, options, backtest }, { ...run, onProgress: scaled(BACKTEST_SHARE, 1 - BACKTEST_SHARE) });
+}

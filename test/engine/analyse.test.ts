@@ -5,6 +5,7 @@
  * named method with a backtest; and without a backtest it is the plain analyse job.
  */
 import { analyse, type AnalysisOptions, type Report } from "../../src/core/analysis";
+import type { Cell, ReportTable } from "../../src/core/report";
 import { analyseInEngine, createEngine, type Engine } from "../../src/engine";
 import { NodeTransport } from "../../src/engine/node";
 import { expectWellFormedProgress, progressRecorder } from "./helpers";
@@ -16,10 +17,10 @@ const series = laneSeries(180);
 /** The report without the columns its tables declare varying (timings). */
 function steady(r: Report): unknown {
   const tables = Object.fromEntries(
-    Object.entries(r.tables).map(([k, t]) => {
+    Object.entries(r.tables).map(([k, t]: [string, ReportTable | undefined]) => {
       if (!t?.varying) return [k, t];
-      const keep = t.columns.map((c, j) => (t.varying?.includes(c) ? -1 : j)).filter((j) => j >= 0);
-      return [k, { ...t, columns: keep.map((j) => t.columns[j]), rows: t.rows.map((row) => keep.map((j) => row[j])) }];
+      const keep = t.columns.map((c: string, j: number) => (t.varying?.includes(c) ? -1 : j)).filter((j: number) => j >= 0);
+      return [k, { ...t, columns: keep.map((j: number) => t.columns[j]), rows: t.rows.map((row: Cell[]) => keep.map((j: number) => row[j])) }];
     }),
   );
   return { ...r, tables };

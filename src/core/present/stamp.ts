@@ -1,0 +1,66 @@
+/**
+ * The stamp at the top of every managed sheet: what the results were made from and when, so a
+ * manager who opens the book read-only, without the add-in, can tell how current they are.
+ */
+import type { Cell } from "../report";
+import type { ResolvedOptions } from "../analysis";
+import { modePhrase } from "../evaluate/backtest";
+import { DEFAULT_BACKTEST_HORIZON, DEFAULT_TEST_WEEKS } from "../evaluate/plan";
+
+/** The first cell of every managed sheet: how a sink recognises a sheet it may rewrite. */
+export const MANAGED_MARK = "Fairlead managed sheet";
+
+export const CAUTION = "Forecasts are statistical estimates from past rates only; they are not advice to book, fix or trade.";
+
+export interface StampInput {
+  /** Product version (package.json). */
+  version: string;
+  /** Where the rates came from, as a person would say it: "desk-weekly.xlsx › Rates › WeeklyRates". */
+  source: string;
+  /** The series analysed, each with its first and last week (ISO dates, or null when undated). */
+  series: { name: string; first: string | null; last: string | null; weeks: number; method: string }[];
+  /** The options the run used (every series shares them). */
+  options: ResolvedOptions;
+  /** When the run was made, as an ISO-8601 UTC timestamp. */
+  ranAt: string;
+}
+
+/** The options in one line of words. */
+export function optionsPhrase(o: ResolvedOptions): string {
+  const parts = [`${o.horizon} weeks ahead`, `coverage ${o.levels.map((l) => `${l}%`).join(", ")}`];
+  parts.push(o.checks ? "checks on" : "checks off");
+  if (o.backtest || o.method === "auto") {
+    const b = o.backtest ?? {};
+    const modes = (b.modes ?? ["every"]).map((m) => modePhrase(m)).join("; ");
+    const windows = b.windows ?? 1;
+    parts.push(
+      `backtest over the last ${(b.testWeeks ?? DEFAULT_TEST_WEEKS) * windows} weeks, ${b.horizon ?? DEFAULT_BACKTEST_HORIZON} ahead, ${modes}` +
+        (o.method === "auto" ? `, chosen by ${o.choose.toUpperCase()}` : ""),
+    );
+  }
+  return parts.join("; ");
+}
+
+/** The latest week over all series (the as-of week), or null when none is dated. */
+export function asOfWeek(stamp: StampInput): string | null {
+  let last: string | null = null;
+  for (const s of stamp.series) if (s.last !== null && (last === null || s.last > last)) last = s.last;
+  return last;
+}
+
+/** The stamp as label/value rows; `what` names the sheet's contents ("Outlook"). */
+export function stampRows(stamp: StampInput, what: string): Cell[][] {
+  const rows: Cell[][] = [
+    [MANAGED_MARK, `${what}. Fairlead rewrites this sheet on every run: type nothing here, link to it instead.`],
+    ["As of week ending", asOfWeek(stamp)],
+    ["Data", stamp.source],
+  ];
+  for (const s of stamp.series) {
+    const span = s.first && s.last ? `${s.first} to ${s.last}` : "undated";
+    rows.push([`Series`, `${s.name}: ${s.weeks} weeks, ${span}; method ${s.method}`]);
+  }
+  rows.push(["Options", optionsPhrase(stamp.options)]);
+  rows.push(["Made", `${stamp.ranAt} by Fairlead ${stamp.version}`]);
+  rows.push(["Caution", CAUTION]);
+  return rows;
+}

@@ -8,6 +8,7 @@ import type { ReportTable } from "../core/report";
 import { InputError } from "../core/series/errors";
 import { readWeekly } from "../core/series/intake";
 import type { SelectionBlocks } from "./excel/readSelection";
+import { cellName, columnIndex } from "../core/present/a1";
 
 /** What the pane shows after a successful read. */
 export interface DataView {
@@ -33,22 +34,10 @@ export function originOf(address: string): SheetOrigin | null {
   const sheet = bang >= 0 ? address.slice(0, bang) : "";
   const m = /^\$?([A-Za-z]{1,3})\$?(\d+)/.exec(address.slice(bang + 1));
   if (!m) return null;
-  let col = 0;
-  for (const ch of m[1].toUpperCase()) col = col * 26 + (ch.charCodeAt(0) - 64);
-  return { sheet, row: Number(m[2]) - 1, col: col - 1 };
+  return { sheet, row: Number(m[2]) - 1, col: columnIndex(m[1]) };
 }
 
-/** The A1 name of a 0-based cell, e.g. {row: 11, col: 2} → "C12". */
-export function cellName(row: number, col: number): string {
-  let c = col + 1;
-  let letters = "";
-  while (c > 0) {
-    const r = (c - 1) % 26;
-    letters = String.fromCharCode(65 + r) + letters;
-    c = Math.floor((c - 1) / 26);
-  }
-  return `${letters}${row + 1}`;
-}
+export { cellName };
 
 /**
  * Runs the intake on the blocks read from the selection, with cell offsets relative to the

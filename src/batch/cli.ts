@@ -1,0 +1,231 @@
+#!/usr/bin/env node
+/**
+ * fairlead — the command-line runner (package.json "bin"). Verbs:
+ *   run <book.xlsx>       analyse the book's rate columns and write the managed sheets
+ *   forecast              forecasts and intervals of one column, as a table or JSON
+ * Exit codes: 0 done, 2 bad input (one line on stderr saying why), 1 internal failure.
+ */
+import type { AnalysisOptions, ChoiceMetric } from "../core/analysis";
+import { analyse } from "../core/analysis";
+import type { RefitMode } from "../core/evaluate/backtest";
+import type { BacktestOptions } from "../core/evaluate/plan";
+import { runDefaults } from "../core/present/defaults";
+import { CAUTION } from "../core/present/stamp";
+import { flag, has, levelsFlag, list, parseArgs, wholeFlag, type FlagSpec, type Parsed } from "./args";
+import { EXIT_BAD_INPUT, EXIT_INTERNAL, EXIT_OK, UsageError, isBadInput } from "./errors";
+import { forecastJson, jsonText, runJson } from "./json";
+import { progressBar } from "./progress";
+import { fairleadVersion, runBook, seriesOfBlock } from "./run";
+import { bookBlock, csvBlock, loadBook } from "./source";
+import { summaryText } from "./summary";
+
+const COMMON: Record<string, FlagSpec> = {
+  sheet: { value: true, help: "the sheet to read (default: the first sheet with a table)" },
+  table: { value: true, help: "the Excel table to read (default: the sheet's only table, else its used range)" },
+  dates: { value: true, help: "header of the week-ending date column (default: the first column of dates)" },
+  horizon: { value: true, help: "weeks ahead, 1 to 260 (default 12)" },
+  coverage: { value: true, help: "interval coverage levels in percent, such as 80,95 (the default)" },
+  method: { value: true, help: "method code: auto (default: chosen by backtest), tbats, sarima, nnar, combo, lastyear, lastweek, drift" },
+  methods: { value: true, help: "the methods auto compares, such as tbats,sarima,lastyear" },
+  backtest: { value: true, help: "off, or settings such as weeks=52,ahead=4,refit=every (refit: every, fixed or a number of weeks)" },
+  choose: { value: true, help: "the measure auto chooses by: mase (default), mape, rmse or smape" },
+  json: { value: false, help: "print JSON on stdout instead of the summary" },
+  timing: { value: false, help: "include run times in the JSON (they differ from run to run)" },
+  quiet: { value: false, help: "no progress on stderr" },
+  workers: { value: true, help: "worker threads (default: the machine's cores)" },
+};
+
+const RUN_FLAGS: Record<string, FlagSpec> = {
+  ...COMMON,
+  column: { value: true, repeat: true, help: "header of a rate column to analyse (repeat, or separate by commas; default: every column of numbers)" },
+  out: { value: true, help: "the output book (default: <book>.fairlead.xlsx)" },
+  into: { value: true, help: "write the results into this book (a copy of it, at --out) instead of a copy of the input" },
+  "in-place": { value: false, help: "rewrite the input book itself; only Fairlead's own sheets change" },
+  "no-charts": { value: false, help: "leave the chart images out" },
+  "no-checks": { value: false, help: "skip the stationarity, seasonality and nonlinearity checks" },
+};
+
+const FORECAST_FLAGS: Record<string, FlagSpec> = {
+  ...COMMON,
+  csv: { value: true, help: "a CSV file with a header line (instead of an .xlsx book)" },
+  column: { value: true, help: "header of the rate column" },
+};
+
+const USAGE = `fairlead ${fairleadVersion()} — weekly freight-rate outlooks from the command line
+
+  fairlead run <book.xlsx> [--sheet S] [--table T] [--column C …] [--dates D] [--horizon H]
+               [--method M] [--methods a,b] [--backtest off|weeks=52,ahead=4,refit=every]
+               [--coverage 80,95] [--out out.xlsx | --into other.xlsx | --in-place] [--json]
+  fairlead forecast (--csv file.csv | <book.xlsx>) --column C [--dates D] [--horizon H]
+               [--method M] [--coverage 80,95] [--json]
+
+${CAUTION}
+`;
+
+function choice(p: Parsed): ChoiceMetric | undefined {
+  const c = flag(p, "choose");
+  if (c === undefined) return undefined;
+  const v = c.trim().toLowerCase();
+  if (!["mase", "mape", "rmse", "smape"].includes(v)) throw new UsageError(`--choose takes mase, mape, rmse or smape; got "${c}".`);
+  return v as ChoiceMetric;
+}
+
+function refitModes(text: string): RefitMode[] {
+  return text.split(/[;/]/).map((m) => {
+    const v = m.trim().toLowerCase();
+    if (v === "every" || v === "fixed") return v;
+    if (/^\d+$/.test(v) && Number(v) >= 1) return Number(v) === 1 ? "every" : Number(v);
+    throw new UsageError(`refit takes every, fixed or a whole number of weeks; got "${m}".`);
+  });
+}
+
+/** --backtest off | weeks=52,ahead=4,refit=every,windows=1 over the defaults. */
+function backtestOption(p: Parsed, base: BacktestOptions | null | undefined): BacktestOptions | null {
+  const v = flag(p, "backtest");
+  const methods = list(p, "methods");
+  if (v === undefined) return base ? { ...base, ...(methods ? { methods } : {}) } : methods ? { methods } : (base ?? null);
+  if (v.trim().toLowerCase() === "off") {
+    if (methods) throw new UsageError("--methods lists the methods a backtest compares; it cannot go with --backtest off.");
+    return null;
+  }
+  const out: BacktestOptions = { ...(base ?? {}) };
+  for (const part of v.split(",")) {
+    const [key, raw] = part.split("=").map((x) => x?.trim());
+    const whole = (what: string): number => {
+      if (!raw || !/^\d+$/.test(raw) || Number(raw) < 1) throw new UsageError(`--backtest ${what} must be a whole number of at least 1; got "${raw ?? ""}".`);
+      return Number(raw);
+    };
+    if (key === "weeks") out.testWeeks = whole("weeks");
+    else if (key === "ahead") out.horizon = whole("ahead");
+    else if (key === "windows") out.windows = whole("windows");
+    else if (key === "refit" && raw) out.modes = refitModes(raw);
+    else throw new UsageError(`--backtest takes off, or weeks=…, ahead=…, refit=…, windows=… separated by commas; got "${part}".`);
+  }
+  if (methods) out.methods = methods;
+  return out;
+}
+
+function analysisOptions(p: Parsed, base: AnalysisOptions): AnalysisOptions {
+  const o: AnalysisOptions = { ...base };
+  const h = wholeFlag(p, "horizon", 1, 260);
+  if (h !== undefined) o.horizon = h;
+  const levels = levelsFlag(p, "coverage");
+  if (levels) o.levels = levels;
+  const m = flag(p, "method");
+  if (m !== undefined) o.method = m.trim().toLowerCase();
+  const c = choice(p);
+  if (c) o.choose = c;
+  const bt = backtestOption(p, o.method === "auto" || flag(p, "backtest") !== undefined || has(p, "methods") ? base.backtest : null);
+  o.backtest = bt;
+  if (o.method === "auto" && bt === null) throw new UsageError("--method auto chooses by backtest; it cannot go with --backtest off. Name a method instead.");
+  if (has(p, "no-checks")) o.checks = false;
+  return o;
+}
+
+async function runVerb(argv: string[]): Promise<number> {
+  const p = parseArgs(argv, RUN_FLAGS, "run");
+  if (p.positional.length !== 1) throw new UsageError(`run takes one book: fairlead run <book.xlsx> [options]; got ${p.positional.length === 0 ? "none" : p.positional.join(" ")}.`);
+  const json = has(p, "json");
+  const options = analysisOptions(p, runDefaults());
+  const progress = progressBar(process.stderr, !has(p, "quiet"));
+  const result = await runBook(
+    {
+      book: p.positional[0],
+      sheet: flag(p, "sheet"),
+      table: flag(p, "table"),
+      columns: list(p, "column"),
+      dates: flag(p, "dates"),
+      options,
+      out: flag(p, "out"),
+      into: flag(p, "into"),
+      inPlace: has(p, "in-place"),
+      charts: !has(p, "no-charts"),
+      workers: wholeFlag(p, "workers", 1, 64),
+    },
+    progress,
+    !json || flag(p, "out") !== undefined || has(p, "in-place") || flag(p, "into") !== undefined,
+  );
+  if (json) process.stdout.write(jsonText(runJson(fairleadVersion(), result.stamp.source, result.analysed, has(p, "timing"), result.seconds)));
+  else process.stdout.write(summaryText(result.stamp.source, result.analysed, result.written, result.seconds, result.warnings));
+  return EXIT_OK;
+}
+
+async function forecastVerb(argv: string[]): Promise<number> {
+  const p = parseArgs(argv, FORECAST_FLAGS, "forecast");
+  const started = Date.now();
+  const csv = flag(p, "csv");
+  if (csv && p.positional.length > 0) throw new UsageError("forecast reads either --csv file.csv or one .xlsx book, not both.");
+  if (!csv && p.positional.length !== 1) throw new UsageError("forecast needs --csv file.csv or one .xlsx book.");
+  const block = csv ? csvBlock(csv) : bookBlock(await loadBook(p.positional[0]), p.positional[0], { sheet: flag(p, "sheet"), table: flag(p, "table") });
+  const column = flag(p, "column");
+  const series = seriesOfBlock(block, column ? [column] : undefined, flag(p, "dates"));
+  if (series.length !== 1) {
+    throw new UsageError(`${block.label} has ${series.length} rate columns; name one with --column.`);
+  }
+  // A forecast needs no checks; a backtest only when the method is chosen by one.
+  const options = analysisOptions(p, { ...runDefaults(), checks: false });
+  const progress = progressBar(process.stderr, !has(p, "quiet") && options.method === "auto");
+  const report = analyse(series[0], options, { progress: (f, s) => progress.update(f, s) });
+  progress.done();
+  const seconds = (Date.now() - started) / 1000;
+  const out = forecastJson(report, has(p, "timing") ? seconds : null);
+  if (has(p, "json")) {
+    process.stdout.write(jsonText(out));
+    return EXIT_OK;
+  }
+  const levels = out.levels;
+  const lines = [`${series[0].name ?? "Series"}: ${report.model.label}, ${out.chosen}; last week ${out.last_week ?? "undated"}`];
+  const head = ["Step", "Week ending", "Forecast", ...levels.flatMap((l) => [`Low ${l}%`, `High ${l}%`])];
+  lines.push(head.join("\t"));
+  for (const f of out.forecast) {
+    const cells = [String(f.step), f.week ?? "", f.point === null ? "" : f.point.toFixed(1)];
+    for (const l of levels) {
+      const lo = f.lower[String(l)];
+      const hi = f.upper[String(l)];
+      cells.push(lo === null || lo === undefined ? "" : lo.toFixed(1), hi === null || hi === undefined ? "" : hi.toFixed(1));
+    }
+    lines.push(cells.join("\t"));
+  }
+  for (const w of out.warnings) lines.push(w);
+  lines.push(CAUTION);
+  process.stdout.write(`${lines.join("\n")}\n`);
+  return EXIT_OK;
+}
+
+export async function main(argv: string[]): Promise<number> {
+  const [verb, ...rest] = argv;
+  try {
+    if (verb === "run") return await runVerb(rest);
+    if (verb === "forecast") return await forecastVerb(rest);
+    if (verb === undefined || verb === "help" || verb === "--help" || verb === "-h") {
+      process.stdout.write(USAGE);
+      return verb === undefined ? EXIT_BAD_INPUT : EXIT_OK;
+    }
+    if (verb === "--version") {
+      process.stdout.write(`${fairleadVersion()}\n`);
+      return EXIT_OK;
+    }
+    throw new UsageError(`fairlead has no verb "${verb}"; use run or forecast (fairlead help lists their options).`);
+  } catch (e) {
+    if (isBadInput(e)) {
+      process.stderr.write(`fairlead: ${e.message}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    const why = e instanceof Error ? (e.stack ?? e.message) : String(e);
+    process.stderr.write(`fairlead: internal error, please report it with the command you ran:\n${why}\n`);
+    return EXIT_INTERNAL;
+  }
+}
+
+if (require.main === module) {
+  main(process.argv.slice(2)).then(
+    (code) => {
+      process.exitCode = code;
+    },
+    (e: unknown) => {
+      process.stderr.write(`fairlead: internal error: ${String(e)}\n`);
+      process.exitCode = EXIT_INTERNAL;
+    },
+  );
+}
+

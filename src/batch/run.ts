@@ -1,0 +1,171 @@
+/**
+ * The `run` verb: read a book, analyse every chosen rate column with analyse() through the
+ * engine (backtests spread over the worker threads), and write the managed sheets, workbook
+ * names and chart images into a copy of the book (or into another book, or in place when told).
+ */
+import * as fs from "fs";
+import * as path from "path";
+import type ExcelJS from "exceljs";
+import type { AnalysisOptions, Report } from "../core/analysis";
+import { resolveOptions } from "../core/analysis";
+import { isoDate } from "../core/series/calendar";
+import type { WeeklySeries } from "../core/series/types";
+import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../core/present/sheets";
+import type { StampInput } from "../core/present/stamp";
+import { analyseInEngine, createEngine, type Engine, type Transport } from "../engine";
+import { NodeTransport } from "../engine/node";
+import { chartPng } from "./chartImage";
+import { UsageError } from "./errors";
+import { bookBlock, chooseColumns, loadBook, readSeries, type Block } from "./source";
+import type { ProgressSink } from "./progress";
+import { checkManagedNames, partsNotKept, saveBook, writeManaged } from "./writeBook";
+
+export interface RunSettings {
+  book: string;
+  sheet?: string;
+  table?: string;
+  columns?: string[];
+  dates?: string;
+  options: AnalysisOptions;
+  /** Output book (default: <book>.fairlead.xlsx beside the input). */
+  out?: string;
+  /** Write the managed sheets into this book instead of a copy of the input. */
+  into?: string;
+  /** Rewrite the input book itself (only its managed sheets). */
+  inPlace: boolean;
+  /** Draw the charts as images (default true). */
+  charts: boolean;
+  /** Workers (default: the machine's cores). */
+  workers?: number;
+  /** How the engine runs its jobs (default: worker threads); tests may run them inline. */
+  transport?: Transport;
+  /** The run's timestamp for the stamp (default now); tests fix it. */
+  now?: Date;
+}
+
+export interface RunResult {
+  analysed: AnalysedSeries[];
+  sheets: ManagedSheet[];
+  stamp: StampInput;
+  /** The book written, or null when nothing was written (--json without --out). */
+  written: string | null;
+  warnings: string[];
+  seconds: number;
+}
+
+/** The project's version, from the package.json above this file (source or build tree alike). */
+export function fairleadVersion(): string {
+  let dir = __dirname;
+  for (let i = 0; i < 6; i++) {
+    const p = path.join(dir, "package.json");
+    if (fs.existsSync(p)) {
+      const pkg = JSON.parse(fs.readFileSync(p, "utf8")) as { name?: string; version?: string };
+      if (pkg.name === "fairlead" && pkg.version) return pkg.version;
+    }
+    dir = path.dirname(dir);
+  }
+  return "unknown";
+}
+
+export function defaultOut(book: string): string {
+  return book.replace(/(\.xlsx)?$/i, ".fairlead.xlsx");
+}
+
+/** The series of a block, every chosen column through the intake. */
+export function seriesOfBlock(block: Block, columns: string[] | undefined, dates: string | undefined): WeeklySeries[] {
+  const chosen = chooseColumns(block, { columns, dates });
+  if (chosen.dates === null && !columns) {
+    // Without dates the season and the outlook's weeks are unknown: say so rather than guess.
+    throw new UsageError(`${block.label} has no column of dates; name it with --dates (or give --column to analyse undated rates).`);
+  }
+  return chosen.rates.map((j) => readSeries(block, j, chosen.dates));
+}
+
+/** Analyses the series in one engine; progress is the mean over the series. */
+export async function analyseAll(engine: Engine, series: WeeklySeries[], options: AnalysisOptions, progress: ProgressSink): Promise<Report[]> {
+  const done = new Array<number>(series.length).fill(0);
+  const say = (i: number) => (f: number, sentence: string) => {
+    done[i] = f;
+    const mean = done.reduce((a, b) => a + b, 0) / series.length;
+    progress.update(mean, series.length > 1 ? `${series[i].name ?? `series ${i + 1}`}: ${sentence}` : sentence);
+  };
+  return Promise.all(series.map((s, i) => analyseInEngine(engine, s, options, { onProgress: say(i) })));
+}
+
+function stampOf(source: string, analysed: AnalysedSeries[], now: Date): StampInput {
+  return {
+    version: fairleadVersion(),
+    source,
+    series: analysed.map((a) => {
+      const n = a.series.values.length;
+      const dated = a.series.dates.length === n && n > 0;
+      return {
+        name: a.name,
+        first: dated ? isoDate(a.series.dates[0]) : null,
+        last: dated ? isoDate(a.series.dates[n - 1]) : null,
+        weeks: n,
+        method: a.report.model.label,
+      };
+    }),
+    options: analysed[0].report.options,
+    ranAt: now.toISOString().replace(/\.\d{3}Z$/, "Z"),
+  };
+}
+
+async function chartImages(sheets: ManagedSheet[]): Promise<Map<string, Uint8Array>> {
+  const images = new Map<string, Uint8Array>();
+  for (const s of sheets) for (const c of s.charts) images.set(c.spec.id, await chartPng(c.spec));
+  return images;
+}
+
+export async function runBook(settings: RunSettings, progress: ProgressSink, write: boolean): Promise<RunResult> {
+  const started = Date.now();
+  const input = path.resolve(settings.book);
+  const out = settings.inPlace ? input : path.resolve(settings.out ?? defaultOut(settings.into ?? settings.book));
+  if (!settings.inPlace && (out === input || (settings.into && out === path.resolve(settings.into)))) {
+    throw new UsageError(`The output ${settings.out} is the book itself; give another --out, or --in-place to rewrite only Fairlead's sheets in it.`);
+  }
+  if (settings.inPlace && settings.into) throw new UsageError("--in-place rewrites the input book; it cannot be combined with --into.");
+
+  const wb = await loadBook(settings.book);
+  const target: ExcelJS.Workbook = settings.into ? await loadBook(settings.into) : wb;
+  // Refuse before the slow part: a user's sheet under one of Fairlead's names stops the run.
+  if (write) checkManagedNames(target);
+  const warnings: string[] = [];
+  if (write) {
+    const lost = await partsNotKept(settings.into ?? settings.book);
+    if (lost.length > 0) {
+      if (settings.inPlace) {
+        throw new UsageError(
+          `${path.basename(settings.book)} holds ${lost.join(", ")}, which rewriting it here would drop; write a copy with --out instead.`,
+        );
+      }
+      warnings.push(`The copy in ${path.basename(out)} does not carry the source book's ${lost.join(", ")}; the original is untouched.`);
+    }
+  }
+
+  const block = bookBlock(wb, settings.book, { sheet: settings.sheet, table: settings.table });
+  const series = seriesOfBlock(block, settings.columns, settings.dates);
+  for (const s of series) resolveOptions(s, settings.options); // bad options fail before any work starts
+
+  const engine = createEngine(settings.transport ?? new NodeTransport(), { size: settings.workers });
+  let reports: Report[];
+  try {
+    reports = await analyseAll(engine, series, settings.options, progress);
+  } finally {
+    engine.close();
+  }
+  const analysed: AnalysedSeries[] = series.map((s, i) => ({ name: s.name ?? `Series ${i + 1}`, series: s, report: reports[i] }));
+  const stamp = stampOf(block.label, analysed, settings.now ?? new Date());
+  const sheets = managedSheets(analysed, stamp);
+  let written: string | null = null;
+  if (write) {
+    progress.update(1, "Drawing the charts and writing the book");
+    const images = settings.charts ? await chartImages(sheets) : new Map<string, Uint8Array>();
+    writeManaged(target, sheets, images);
+    await saveBook(target, out);
+    written = out;
+  }
+  progress.done();
+  return { analysed, sheets, stamp, written, warnings, seconds: (Date.now() - started) / 1000 };
+}

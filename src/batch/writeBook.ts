@@ -1,0 +1,155 @@
+/**
+ * Writes the managed sheets (core/present/sheets.ts) into an exceljs workbook as plain values
+ * with their stamp, the workbook names over the outlook, and the charts as embedded images.
+ * Only Fairlead's own sheets are touched: a sheet of the same name that does not carry the
+ * managed mark in A1 is the user's, and the write stops with a sentence instead.
+ */
+import * as fs from "fs";
+import * as path from "path";
+import ExcelJS from "exceljs";
+import JSZip from "jszip";
+import type { CellStyle, ManagedSheet } from "../core/present/sheets";
+import { MANAGED_SHEETS } from "../core/present/sheets";
+import { MANAGED_MARK } from "../core/present/stamp";
+import { columnLetters } from "../core/present/a1";
+import { UsageError } from "./errors";
+
+/** Pixels of one default column and row, for sizing chart images over cells. */
+const COL_PX = 64;
+const ROW_PX = 20;
+
+const FORMATS: Partial<Record<CellStyle, string>> = {
+  date: "yyyy-mm-dd",
+  rate: "#,##0.0",
+  ratio: "0.0000",
+  count: "0",
+};
+
+function isoToDate(s: string): Date | null {
+  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(s);
+  return m ? new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]))) : null;
+}
+
+function styleCell(cell: ExcelJS.Cell, style: CellStyle): void {
+  const fmt = FORMATS[style];
+  if (fmt) cell.numFmt = fmt;
+  switch (style) {
+    case "mark":
+      cell.font = { bold: true, color: { argb: "FF4A5A6A" } };
+      break;
+    case "stampLabel":
+      cell.font = { bold: true };
+      break;
+    case "seriesTitle":
+      cell.font = { bold: true, size: 13, color: { argb: "FF1F4E79" } };
+      break;
+    case "tableTitle":
+      cell.font = { bold: true };
+      break;
+    case "header":
+      cell.font = { bold: true };
+      cell.fill = { type: "pattern", pattern: "solid", fgColor: { argb: "FFE8EEF4" } };
+      cell.border = { bottom: { style: "thin", color: { argb: "FF8EA9C1" } } };
+      break;
+    case "note":
+      cell.font = { italic: true, color: { argb: "FF595959" } };
+      break;
+    default:
+      break;
+  }
+}
+
+function quoteSheet(name: string): string {
+  return `'${name.replace(/'/g, "''")}'`;
+}
+
+function absolute(row: number, col: number): string {
+  return `$${columnLetters(col)}$${row + 1}`;
+}
+
+/** Refuses when a sheet with a managed name exists that Fairlead did not write. */
+export function checkManagedNames(wb: ExcelJS.Workbook): void {
+  for (const { name } of MANAGED_SHEETS) {
+    const ws = wb.getWorksheet(name);
+    if (ws && ws.getCell(1, 1).value !== MANAGED_MARK) {
+      throw new UsageError(
+        `The book already has a sheet "${name}" that Fairlead did not write (its A1 is not "${MANAGED_MARK}"); rename that sheet so nothing of yours is overwritten.`,
+      );
+    }
+  }
+}
+
+/** Replaces Fairlead's sheets and names in `wb` with `sheets`; `images` holds a PNG per chart id. */
+export function writeManaged(wb: ExcelJS.Workbook, sheets: ManagedSheet[], images: Map<string, Uint8Array>): void {
+  checkManagedNames(wb);
+  for (const { name } of MANAGED_SHEETS) {
+    const ws = wb.getWorksheet(name);
+    if (ws) wb.removeWorksheet(ws.id);
+  }
+  const names = wb.definedNames as unknown as { model: { name: string }[]; removeAllNames(name: string): void; add(loc: string, name: string): void };
+  for (const n of names.model.map((m) => m.name)) if (n.startsWith("FL_")) names.removeAllNames(n);
+
+  for (const sheet of sheets) {
+    const ws = wb.addWorksheet(sheet.name, { properties: { tabColor: { argb: "FF1F4E79" } } });
+    const styleAt = new Map<string, CellStyle>();
+    for (const s of sheet.styles) {
+      for (let r = s.row; r < s.row + s.rows; r++) for (let c = s.col; c < s.col + s.cols; c++) styleAt.set(`${r},${c}`, s.style);
+    }
+    sheet.cells.forEach((row, r) => {
+      row.forEach((v, c) => {
+        if (v === null) return;
+        const style = styleAt.get(`${r},${c}`);
+        const cell = ws.getCell(r + 1, c + 1);
+        if (style === "date" && typeof v === "string") cell.value = isoToDate(v) ?? v;
+        else cell.value = typeof v === "number" && !Number.isFinite(v) ? null : v;
+        if (style) styleCell(cell, style);
+      });
+    });
+    ws.getColumn(1).width = 30;
+    for (let c = 2; c <= Math.max(2, sheet.width); c++) ws.getColumn(c).width = 14;
+    for (const n of sheet.names) {
+      const loc = `${quoteSheet(sheet.name)}!${absolute(n.row, n.col)}${n.rows > 1 || n.cols > 1 ? `:${absolute(n.row + n.rows - 1, n.col + n.cols - 1)}` : ""}`;
+      names.add(loc, n.name);
+    }
+    for (const ch of sheet.charts) {
+      const png = images.get(ch.spec.id);
+      if (!png) continue;
+      const id = wb.addImage({ buffer: Buffer.from(png) as unknown as ExcelJS.Buffer, extension: "png" });
+      ws.addImage(id, { tl: { col: ch.col, row: ch.row }, ext: { width: ch.widthCols * COL_PX * 1.5, height: ch.heightRows * ROW_PX } });
+    }
+  }
+}
+
+/** Parts of an .xlsx that exceljs does not carry through a read and write. */
+const NOT_KEPT: [RegExp, string][] = [
+  [/^xl\/charts\//, "charts"],
+  [/^xl\/pivotTables\//, "pivot tables"],
+  [/^xl\/vbaProject\.bin$/, "macros"],
+  [/^xl\/externalLinks\//, "links to other workbooks"],
+  [/^xl\/slicers\//, "slicers"],
+];
+
+/** What a rewrite of this file would drop, as words ("charts, pivot tables"); empty when nothing. */
+export async function partsNotKept(file: string): Promise<string[]> {
+  const zip = await JSZip.loadAsync(fs.readFileSync(file));
+  const found = new Set<string>();
+  zip.forEach((p) => {
+    for (const [re, what] of NOT_KEPT) if (re.test(p)) found.add(what);
+  });
+  return [...found];
+}
+
+/** Writes the book to `file` through a temporary file beside it, so a failure leaves no half-written book. */
+export async function saveBook(wb: ExcelJS.Workbook, file: string): Promise<void> {
+  fs.mkdirSync(path.dirname(path.resolve(file)), { recursive: true });
+  const tmp = `${file}.${process.pid}.tmp`;
+  try {
+    await wb.xlsx.writeFile(tmp);
+    fs.renameSync(tmp, file);
+  } catch (e) {
+    if (fs.existsSync(tmp)) fs.unlinkSync(tmp);
+    const why = e instanceof Error ? e.message : String(e);
+    if (/EBUSY|EACCES|EPERM/.test(why)) throw new UsageError(`${file} could not be written (${why.split("\n")[0]}); is it open in Excel?`);
+    throw e;
+  }
+}

@@ -5,12 +5,13 @@
  *   forecast              forecasts and intervals of one column, as a table or JSON
  * Exit codes: 0 done, 2 bad input (one line on stderr saying why), 1 internal failure.
  */
-import type { AnalysisOptions, ChoiceMetric } from "../core/analysis";
-import { analyse } from "../core/analysis";
+import type { AnalysisOptions, ChoiceMetric, Report } from "../core/analysis";
 import type { RefitMode } from "../core/evaluate/backtest";
 import type { BacktestOptions } from "../core/evaluate/plan";
 import { runDefaults } from "../core/present/defaults";
 import { CAUTION } from "../core/present/stamp";
+import { analyseInEngine, createEngine } from "../engine";
+import { NodeTransport } from "../engine/node";
 import { flag, has, levelsFlag, list, parseArgs, wholeFlag, type FlagSpec, type Parsed } from "./args";
 import { EXIT_BAD_INPUT, EXIT_INTERNAL, EXIT_OK, UsageError, isBadInput } from "./errors";
 import { forecastJson, jsonText, runJson } from "./json";
@@ -165,7 +166,13 @@ async function forecastVerb(argv: string[]): Promise<number> {
   // A forecast needs no checks; a backtest only when the method is chosen by one.
   const options = analysisOptions(p, { ...runDefaults(), checks: false });
   const progress = progressBar(process.stderr, !has(p, "quiet") && options.method === "auto");
-  const report = analyse(series[0], options, { progress: (f, s) => progress.update(f, s) });
+  const engine = createEngine(new NodeTransport(), { size: wholeFlag(p, "workers", 1, 64) });
+  let report: Report;
+  try {
+    report = await analyseInEngine(engine, series[0], options, { onProgress: (f, s) => progress.update(f, s) });
+  } finally {
+    engine.close();
+  }
   progress.done();
   const seconds = (Date.now() - started) / 1000;
   const out = forecastJson(report, has(p, "timing") ? seconds : null);

@@ -114,7 +114,7 @@ function stampOf(source: string, analysed: AnalysedSeries[], now: Date): StampIn
 
 async function chartImages(sheets: ManagedSheet[]): Promise<Map<string, Uint8Array>> {
   const images = new Map<string, Uint8Array>();
-  for (const s of sheets) for (const c of s.charts) images.set(c.spec.id, await chartPng(c.spec));
+  for (const s of sheets) for (const c of s.charts) images.set(c.spec.id, await chartPng(c.spec, { width: c.widthPx, height: c.heightPx }));
   return images;
 }
 

@@ -14,10 +14,6 @@ import { MANAGED_MARK } from "../core/present/stamp";
 import { columnLetters } from "../core/present/a1";
 import { UsageError } from "./errors";
 
-/** Pixels of one default column and row, for sizing chart images over cells. */
-const COL_PX = 64;
-const ROW_PX = 20;
-
 const FORMATS: Partial<Record<CellStyle, string>> = {
   date: "yyyy-mm-dd",
   rate: "#,##0.0",
@@ -105,8 +101,10 @@ export function writeManaged(wb: ExcelJS.Workbook, sheets: ManagedSheet[], image
         if (style) styleCell(cell, style);
       });
     });
+    // Widths in characters; 14 is the CELL_PX.width the layout counts chart columns by.
     ws.getColumn(1).width = 30;
-    for (let c = 2; c <= Math.max(2, sheet.width); c++) ws.getColumn(c).width = 14;
+    const last = Math.max(sheet.width, ...sheet.charts.map((c) => c.col + c.widthCols));
+    for (let c = 2; c <= last; c++) ws.getColumn(c).width = 14;
     for (const n of sheet.names) {
       const loc = `${quoteSheet(sheet.name)}!${absolute(n.row, n.col)}${n.rows > 1 || n.cols > 1 ? `:${absolute(n.row + n.rows - 1, n.col + n.cols - 1)}` : ""}`;
       names.add(loc, n.name);
@@ -115,7 +113,7 @@ export function writeManaged(wb: ExcelJS.Workbook, sheets: ManagedSheet[], image
       const png = images.get(ch.spec.id);
       if (!png) continue;
       const id = wb.addImage({ buffer: Buffer.from(png) as unknown as ExcelJS.Buffer, extension: "png" });
-      ws.addImage(id, { tl: { col: ch.col, row: ch.row }, ext: { width: ch.widthCols * COL_PX * 1.5, height: ch.heightRows * ROW_PX } });
+      ws.addImage(id, { tl: { col: ch.col, row: ch.row }, ext: { width: ch.widthPx, height: ch.heightPx } });
     }
   }
 }

@@ -51,9 +51,11 @@ export interface NamedRange extends SheetRange {
 
 export interface PlacedChart {
   spec: ChartSpec;
-  /** Top-left cell and size in cells. */
+  /** Top-left cell, the size drawn in pixels, and the cells that size covers (CELL_PX). */
   row: number;
   col: number;
+  widthPx: number;
+  heightPx: number;
   widthCols: number;
   heightRows: number;
 }
@@ -78,8 +80,21 @@ export interface AnalysedSeries {
   report: Report;
 }
 
-const CHART_COLS = 10;
-const CHART_ROWS = 22;
+/**
+ * Pixels of one cell as the writers lay the sheets out: columns after the first are 14
+ * characters wide (about 103 px in Excel's default font) and rows keep the default 20 px.
+ */
+export const CELL_PX = { width: 103, height: 20 };
+/** Drawn size of each kind of chart: wide for time and comparisons, square for the season's circle. */
+export const CHART_PX: Record<ChartSpec["kind"], { width: number; height: number }> = {
+  line: { width: 960, height: 480 },
+  column: { width: 960, height: 480 },
+  radar: { width: 640, height: 640 },
+};
+
+function chartRows(spec: ChartSpec): number {
+  return Math.ceil(CHART_PX[spec.kind].height / CELL_PX.height);
+}
 
 function isDateColumn(name: string): boolean {
   return /^week( ending| forecast)?$|^last week seen$|^first week ending$|^last week ending$/i.test(name);
@@ -157,7 +172,16 @@ class SheetBuilder {
   }
 
   chart(spec: ChartSpec, row: number, col: number): void {
-    this.charts.push({ spec, row, col, widthCols: CHART_COLS, heightRows: CHART_ROWS });
+    const px = CHART_PX[spec.kind];
+    this.charts.push({
+      spec,
+      row,
+      col,
+      widthPx: px.width,
+      heightPx: px.height,
+      widthCols: Math.ceil(px.width / CELL_PX.width),
+      heightRows: chartRows(spec),
+    });
   }
 
   done(kind: SheetKind, name: string): ManagedSheet {
@@ -248,9 +272,10 @@ export function managedSheets(analysed: AnalysedSeries[], stamp: StampInput): Ma
         // Right of every table the chart's rows run beside, one column clear.
         const top = sectionTop + 1;
         let col = 2;
-        for (const k of b.blocks) if (k.row < top + CHART_ROWS && k.row + k.rows > top && k.row >= sectionTop) col = Math.max(col, k.cols);
+        const rows = chartRows(spec);
+        for (const k of b.blocks) if (k.row < top + rows && k.row + k.rows > top && k.row >= sectionTop) col = Math.max(col, k.cols);
         b.chart(spec, top, col + 1);
-        b.cursor = Math.max(b.cursor, sectionTop + 1 + CHART_ROWS + 1);
+        b.cursor = Math.max(b.cursor, sectionTop + 1 + rows + 1);
       }
     }
     return b.done(kind, name);

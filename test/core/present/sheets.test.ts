@@ -5,7 +5,7 @@
  */
 import { analyse, type Report } from "../../../src/core/analysis";
 import { outlookName, seriesKey } from "../../../src/core/present/names";
-import { MANAGED_SHEETS, managedSheets, type ManagedSheet, type NamedRange } from "../../../src/core/present/sheets";
+import { CELL_PX, MANAGED_SHEETS, managedSheets, type ManagedSheet, type NamedRange } from "../../../src/core/present/sheets";
 import { MANAGED_MARK, stampRows, type StampInput } from "../../../src/core/present/stamp";
 import type { Cell } from "../../../src/core/report";
 import type { WeeklySeries } from "../../../src/core/series/types";
@@ -109,6 +109,13 @@ describe("managed sheets", () => {
       }
     }
     expect(sheets.map((s) => s.charts.map((c) => c.spec.kind))).toEqual([["line"], ["radar"], [], ["column"]]);
+    // Drawn at their own proportions (the season's circle square), and the cells reserved cover them.
+    const sizes = sheets.flatMap((s) => s.charts.map((c) => [c.widthPx, c.heightPx]));
+    expect(sizes).toEqual([[960, 480], [640, 640], [960, 480]]);
+    for (const c of sheets.flatMap((s) => s.charts)) {
+      expect(c.heightRows * CELL_PX.height).toBeGreaterThanOrEqual(c.heightPx);
+      expect(c.widthCols * CELL_PX.width).toBeGreaterThanOrEqual(c.widthPx);
+    }
   });
 });
 

@@ -19,6 +19,9 @@ import type { Cell, ReportTable } from "./report";
 import { table } from "./report";
 import type { CheckTables } from "./diagnostics/battery";
 import { runChecks } from "./diagnostics/battery";
+import { decompositionTable } from "./diagnostics/seasonality/decomposition";
+import { checkSpans, checkThresholds, crossingChances, outlookPaths, spanAverages, type Span, type Threshold } from "./outlook/paths";
+import { chanceTable, meanAheadTable } from "./outlook/tables";
 
 export interface AnalysisOptions {
   /** Method code (DESIGN.md); default "lastyear" when two years of history exist, else "lastweek". */
@@ -36,6 +39,12 @@ export interface AnalysisOptions {
   backtest?: BacktestOptions | null;
   /** The accuracy measure "auto" chooses by (mean over the backtest's weeks ahead); default "mase". */
   choose?: ChoiceMetric;
+  /** Spans of future weeks whose average rate (with intervals) the report gives, from simulated paths. */
+  spans?: Span[];
+  /** Levels whose chance of being crossed in a future week the report gives, from the same paths. */
+  thresholds?: Threshold[];
+  /** Add the week-by-week STL decomposition; default false. */
+  decompose?: boolean;
 }
 
 export type ChoiceMetric = "mase" | "mape" | "rmse" | "smape";
@@ -48,6 +57,9 @@ export interface ResolvedOptions {
   checks: boolean;
   backtest: BacktestOptions | null;
   choose: ChoiceMetric;
+  spans: Span[];
+  thresholds: Threshold[];
+  decompose: boolean;
 }
 
 /** Progress and cancellation for the slow part of an analysis (the backtest). */
@@ -67,6 +79,12 @@ export interface Report {
     backtestSignificance?: ReportTable;
     backtestCost?: ReportTable;
     backtestOrigins?: ReportTable;
+    /** Average rate over spans of future weeks, with intervals (options.spans). */
+    meanAhead?: ReportTable;
+    /** Chance of a rate above or below a level in a future week (options.thresholds). */
+    chance?: ReportTable;
+    /** STL trend, seasonal and remainder week by week (options.decompose). */
+    decomposition?: ReportTable;
   } & CheckTables;
   /** Intake warnings followed by the model's notes. */
   warnings: string[];
@@ -99,7 +117,21 @@ export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = 
   if (!["mase", "mape", "rmse", "smape"].includes(choose)) {
     throw new InputError("BAD_OPTION", `"auto" chooses by MASE, MAPE, RMSE or sMAPE; got "${String(choose)}".`);
   }
-  return { method: method.trim().toLowerCase(), horizon, levels: [...levels], checks: options.checks ?? true, backtest: options.backtest ?? null, choose };
+  const spans = (options.spans ?? []).map((x) => ({ from: x.from, to: x.to }));
+  const thresholds = (options.thresholds ?? []).map((x) => ({ level: x.level, week: x.week, direction: x.direction }));
+  checkSpans(spans, MAX_HORIZON);
+  checkThresholds(thresholds, MAX_HORIZON);
+  return {
+    method: method.trim().toLowerCase(),
+    horizon,
+    levels: [...levels],
+    checks: options.checks ?? true,
+    backtest: options.backtest ?? null,
+    choose,
+    spans,
+    thresholds,
+    decompose: options.decompose ?? false,
+  };
 }
 
 function levelLabel(l: number): string {
@@ -233,7 +265,15 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
     ? runChecks(series, { residuals: fitted.residuals, armaDf: summary.armaDf, label: model.label })
     : { tables: {}, skipped: [] };
 
-  const extra: Partial<Record<"search" | "modelSeason" | "backtest" | "backtestSignificance" | "backtestCost" | "backtestOrigins", ReportTable>> = {};
+  const extra: Partial<Record<"search" | "modelSeason" | "backtest" | "backtestSignificance" | "backtestCost" | "backtestOrigins" | "meanAhead" | "chance" | "decomposition", ReportTable>> = {};
+  if (opts.spans.length > 0 || opts.thresholds.length > 0) {
+    const far = Math.max(checkSpans(opts.spans, MAX_HORIZON), checkThresholds(opts.thresholds, MAX_HORIZON));
+    const paths = outlookPaths(fitted, far);
+    const weekOf = (k: number): Cell => (last ? isoDate(addWeeks(last, k)) : null);
+    if (opts.spans.length > 0) extra.meanAhead = meanAheadTable(spanAverages(paths, opts.spans, opts.levels), opts.levels, weekOf, model.label);
+    if (opts.thresholds.length > 0) extra.chance = chanceTable(crossingChances(paths, opts.thresholds), weekOf, model.label);
+  }
+  if (opts.decompose) extra.decomposition = decompositionTable(series);
   const tried = fitted.searched?.() ?? [];
   if (tried.length > 0) extra.search = searchTable(model.label, tried);
   if (fitted.weekFactorTable && dated) {

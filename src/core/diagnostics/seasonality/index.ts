@@ -20,6 +20,7 @@ export { BASELINE_REPLICATIONS, STRONG_STRENGTH, WEAK_STRENGTH, clearNoiseBaseli
 export type { FactorKind, WeekFactorOptions, WeekFactors } from "./factors";
 export { factorTable, factorsFromSeasonal, logRates, weekFactors, weekFactorsFrom } from "./factors";
 export type { WeekBin } from "./weekYear";
+export { decompositionTable } from "./decomposition";
 export { ISO_WEEK_ROWS, foldNote, requireDates, weekBin, weekYearMeans, weekYearTable } from "./weekYear";
 
 /** Fewest weeks for the seasonality summary: with only two years each week-of-year series has

@@ -20,6 +20,7 @@ import { table } from "./report";
 import type { CheckTables } from "./diagnostics/battery";
 import { runChecks } from "./diagnostics/battery";
 import { decompositionTable } from "./diagnostics/seasonality/decomposition";
+import type { FactorKind } from "./diagnostics/seasonality/factors";
 import { checkSpans, checkThresholds, crossingChances, outlookPaths, spanAverages, type Span, type Threshold } from "./outlook/paths";
 import { chanceTable, meanAheadTable } from "./outlook/tables";
 
@@ -45,6 +46,8 @@ export interface AnalysisOptions {
   thresholds?: Threshold[];
   /** Add the week-by-week STL decomposition; default false. */
   decompose?: boolean;
+  /** Seasonal factors and decomposition multiplicative (on log rates) or additive; default: multiplicative when every rate is positive. */
+  seasonKind?: FactorKind;
 }
 
 export type ChoiceMetric = "mase" | "mape" | "rmse" | "smape";
@@ -60,6 +63,7 @@ export interface ResolvedOptions {
   spans: Span[];
   thresholds: Threshold[];
   decompose: boolean;
+  seasonKind: FactorKind | null;
 }
 
 /** Progress and cancellation for the slow part of an analysis (the backtest). */
@@ -131,7 +135,14 @@ export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = 
     spans,
     thresholds,
     decompose: options.decompose ?? false,
+    seasonKind: checkKind(options.seasonKind),
   };
+}
+
+function checkKind(k: unknown): FactorKind | null {
+  if (k === undefined || k === null) return null;
+  if (k === "multiplicative" || k === "additive") return k;
+  throw new InputError("BAD_OPTION", `Seasonal factors are "multiplicative" or "additive"; got "${String(k)}".`);
 }
 
 function levelLabel(l: number): string {
@@ -262,7 +273,7 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
   const fit = table(`Fit: ${model.label}`, ["Parameter", "Value", "Std. error"], fitRows, summary.notes);
 
   const checks = opts.checks
-    ? runChecks(series, { residuals: fitted.residuals, armaDf: summary.armaDf, label: model.label })
+    ? runChecks(series, { residuals: fitted.residuals, armaDf: summary.armaDf, label: model.label }, opts.seasonKind ? { seasonKind: opts.seasonKind } : {})
     : { tables: {}, skipped: [] };
 
   const extra: Partial<Record<"search" | "modelSeason" | "backtest" | "backtestSignificance" | "backtestCost" | "backtestOrigins" | "meanAhead" | "chance" | "decomposition", ReportTable>> = {};
@@ -273,7 +284,7 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
     if (opts.spans.length > 0) extra.meanAhead = meanAheadTable(spanAverages(paths, opts.spans, opts.levels), opts.levels, weekOf, model.label);
     if (opts.thresholds.length > 0) extra.chance = chanceTable(crossingChances(paths, opts.thresholds), weekOf, model.label);
   }
-  if (opts.decompose) extra.decomposition = decompositionTable(series);
+  if (opts.decompose) extra.decomposition = decompositionTable(series, {}, opts.seasonKind ?? undefined);
   const tried = fitted.searched?.() ?? [];
   if (tried.length > 0) extra.search = searchTable(model.label, tried);
   if (fitted.weekFactorTable && dated) {

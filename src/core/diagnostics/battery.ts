@@ -10,7 +10,7 @@ import { isInputError } from "../series/errors";
 import type { WeeklySeries } from "../series/types";
 import { nonlinearitySummary } from "./nonlinearity";
 import { residualChecks } from "./residuals";
-import { seasonalityAnalysis, weekYearTable } from "./seasonality";
+import { seasonalityAnalysis, weekYearTable, type FactorKind } from "./seasonality";
 import { unitRootSummary } from "./unitroot/integration";
 
 export interface CheckTables {
@@ -66,7 +66,7 @@ function differenced(y: Float64Array, logs: boolean, times: number): Float64Arra
   return d;
 }
 
-export function runChecks(series: WeeklySeries, model?: ModelResiduals): ChecksResult {
+export function runChecks(series: WeeklySeries, model?: ModelResiduals, settings: { seasonKind?: FactorKind } = {}): ChecksResult {
   const tables: CheckTables = {};
   const skipped: string[] = [];
   const y = series.values;
@@ -78,7 +78,7 @@ export function runChecks(series: WeeklySeries, model?: ModelResiduals): ChecksR
   // terms and a smooth annual cycle makes a stationary series look like a random walk.
   let adjusted: Float64Array | null = null;
   attempt("Seasonality checks", skipped, () => {
-    const s = seasonalityAnalysis(series);
+    const s = seasonalityAnalysis(series, settings.seasonKind ? { kind: settings.seasonKind } : {});
     [tables.seasonStrength, tables.weekFactors] = s.tables;
     if (s.seasonalReal) adjusted = s.adjusted;
     if (series.dates.length === y.length) tables.weekYear = weekYearTable(series);

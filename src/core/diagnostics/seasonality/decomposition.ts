@@ -9,13 +9,18 @@ import type { Cell, ReportTable } from "../../report";
 import { table } from "../../report";
 import { WEEKS_PER_YEAR, isoDate } from "../../series/calendar";
 import type { WeeklySeries } from "../../series/types";
-import { logRates } from "./factors";
+import { InputError } from "../../series/errors";
+import { logRates, type FactorKind } from "./factors";
 import { stl, type StlOptions } from "./stl";
 
-export function decompositionTable(series: WeeklySeries, options: StlOptions = {}): ReportTable {
+export function decompositionTable(series: WeeklySeries, options: StlOptions = {}, kind?: FactorKind): ReportTable {
   const y = series.values;
   const n = y.length;
-  const positive = y.every((v) => v > 0);
+  const allPositive = y.every((v) => v > 0);
+  if (kind === "multiplicative" && !allPositive) {
+    throw new InputError("NON_POSITIVE", "A multiplicative decomposition needs every rate above zero; some are zero or negative. Ask for an additive one instead.");
+  }
+  const positive = kind === undefined ? allPositive : kind === "multiplicative";
   const d = stl(positive ? logRates(y, "The decomposition") : y, { ...options, period: WEEKS_PER_YEAR });
   const dated = series.dates.length === n;
   const rows: Cell[][] = [];

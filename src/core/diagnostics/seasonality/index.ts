@@ -45,7 +45,7 @@ export interface SeasonalitySummary {
  * note. Fewer than three years is an InputError (see SEASONALITY_MIN_WEEKS); other
  * InputErrors from STL (constant, not finite, bad option) propagate.
  */
-export function seasonalityAnalysis(series: WeeklySeries, options: StlOptions = {}): SeasonalitySummary {
+export function seasonalityAnalysis(series: WeeklySeries, options: StlOptions & { kind?: FactorKind } = {}): SeasonalitySummary {
   const n = series.values.length;
   if (n < SEASONALITY_MIN_WEEKS) {
     throw new InputError(
@@ -57,9 +57,16 @@ export function seasonalityAnalysis(series: WeeklySeries, options: StlOptions = 
   for (let i = 0; i < n; i++) {
     if (!(series.values[i] > 0)) positive = false;
   }
-  const kind: FactorKind = positive ? "multiplicative" : "additive";
+  if (options.kind === "multiplicative" && !positive) {
+    throw new InputError("NON_POSITIVE", "Multiplicative seasonal factors need every rate above zero; some are zero or negative. Ask for additive factors instead.");
+  }
+  // Multiplicative (on log rates) whenever the rates allow it, unless additive is asked for.
+  const kind: FactorKind = options.kind ?? (positive ? "multiplicative" : "additive");
+  positive = kind === "multiplicative";
   const y = positive ? logRates(series.values, "The seasonal decomposition") : series.values;
-  const stlOptions: StlOptions = { ...options, period: WEEKS_PER_YEAR };
+  const { kind: _kind, ...stlRest } = options;
+  void _kind;
+  const stlOptions: StlOptions = { ...stlRest, period: WEEKS_PER_YEAR };
   const decomposition = stl(y, stlOptions);
   const baseline = noiseBaseline(y.length, stlOptions);
   const strength = stlStrength(decomposition, { noiseBaseline: baseline });

@@ -25,6 +25,9 @@ const outputNames = Object.freeze({
   functionsScript: "functions.js",
   taskpaneScript: "taskpane.js",
   functionsMetadata: "functions.json",
+  // The engine's Web Worker (src/engine/browserWorker.ts); src/functions/engine.ts loads it by this name.
+  engineWorkerEntry: "engine-worker",
+  engineWorkerScript: "engine-worker.js",
   assetsDir: "assets",
 });
 
@@ -60,6 +63,8 @@ function config(argv = {}) {
         import: "./src/taskpane/taskpane.ts",
         dependOn: outputNames.functionsEntry,
       },
+      // A worker has a context of its own: the core is bundled into it again, on purpose.
+      [outputNames.engineWorkerEntry]: "./src/engine/browserWorker.ts",
     },
     output: {
       path: path.resolve(__dirname, "dist"),

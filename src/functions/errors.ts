@@ -13,6 +13,7 @@
  * reference); for #NUM! the message is kept on our side (ExcelErrorSpec) but not passed on.
  */
 import { InputError, InputErrorCode } from "../core/series/errors";
+import { isEngineCancelled, isEngineError } from "../engine/errors";
 
 export type ExcelErrorValue = "#VALUE!" | "#NUM!" | "#N/A";
 
@@ -79,6 +80,9 @@ const INTERNAL_MESSAGE =
 export function excelErrorSpec(e: unknown): ExcelErrorSpec {
   if (e instanceof InputError) return { value: INPUT_ERROR_VALUES[e.code] ?? "#VALUE!", message: e.message };
   if (e instanceof ArgumentError) return { value: e.value, message: e.message };
+  // The engine's own failures are plain sentences by design (src/engine/errors.ts).
+  if (isEngineCancelled(e)) return { value: "#N/A", message: "The calculation was stopped before it finished; recalculate to run it again." };
+  if (isEngineError(e)) return { value: "#VALUE!", message: e.message };
   // A number outside what a routine accepts: Excel's error for impossible numbers.
   if (e instanceof RangeError) return { value: "#NUM!", message: INTERNAL_MESSAGE };
   // Never a stack trace or an internal text in a cell.

@@ -15,6 +15,7 @@ import {
   toCustomFunctionsError,
 } from "../../src/functions/errors";
 import { table } from "../../src/core/report";
+import { EngineCancelled, EngineError } from "../../src/engine/errors";
 import { analyse } from "../../src/core/analysis";
 import { readWeekly } from "../../src/core/series/intake";
 import { outlook, outlookRows, readCoverage } from "../../src/functions/functions";
@@ -42,6 +43,17 @@ function thrown(f: () => unknown): unknown {
     return e;
   }
   throw new Error("expected a throw");
+}
+
+async function excelErrorAsync(p: Promise<unknown>): Promise<FakeError> {
+  let e: unknown;
+  try {
+    await p;
+  } catch (x) {
+    e = x;
+  }
+  expect(e).toBeInstanceOf(FakeError);
+  return e as FakeError;
 }
 
 function excelError(f: () => unknown): FakeError {
@@ -106,6 +118,17 @@ describe("error mapping", () => {
     expect(excelErrorSpec("a thrown string").value).toBe("#VALUE!");
   });
 
+  it("maps the engine's failures: a stopped job is #N/A, a failed worker #VALUE! with its sentence", () => {
+    expect(excelErrorSpec(new EngineCancelled("The TBATS analysis was cancelled."))).toEqual({
+      value: "#N/A",
+      message: "The calculation was stopped before it finished; recalculate to run it again.",
+    });
+    expect(excelErrorSpec(new EngineError("The TBATS analysis stopped: its worker ran out of memory."))).toEqual({
+      value: "#VALUE!",
+      message: "The TBATS analysis stopped: its worker ran out of memory.",
+    });
+  });
+
   it("passes a CustomFunctions.Error through unchanged", () => {
     const own = new FakeError("#N/A", "already mapped");
     expect(thrown(() => guarded(() => {
@@ -130,8 +153,8 @@ describe("OUTLOOK", () => {
   // quantile routine and in sqrt, far below a cent on a rate near 100.
   const TOL = 9;
 
-  it("returns week-ending serials, forecast and bounds per coverage level", () => {
-    const out = outlook([["Halden–Corvane"], ...rates], 3, "lastweek", OMITTED, [["Week ending"], ...dates]);
+  it("returns week-ending serials, forecast and bounds per coverage level", async () => {
+    const out = await outlook([["Halden–Corvane"], ...rates], 3, "lastweek", OMITTED, [["Week ending"], ...dates]);
     expect(out).toHaveLength(3);
     out.forEach((row, s) => {
       const h = s + 1;
@@ -147,17 +170,17 @@ describe("OUTLOOK", () => {
     });
   });
 
-  it("takes the model codes: TBATS on three years of an invented lane gives analyse()'s own outlook", () => {
+  it("takes the model codes: TBATS on three years of an invented lane gives analyse()'s own outlook", async () => {
     // 156 weeks of "Halden–Corvane" with an annual swing of period 365.25/7, no dates.
     const lane = Array.from({ length: 156 }, (_, t) => [1800 + 120 * Math.sin((2 * Math.PI * t) / (365.25 / 7)) + 2 * t + 15 * Math.sin(1.7 * t)]);
-    const out = outlook([["Halden–Corvane"], ...lane], 4, "tbats");
+    const out = await outlook([["Halden–Corvane"], ...lane], 4, "tbats");
     const series = readWeekly([["Halden–Corvane"], ...lane]);
     const want = analyse(series, { method: "tbats", horizon: 4, checks: false }).tables.outlook.rows;
     expect(out.map((r) => r.slice(1))).toEqual(want.map((r) => r.slice(2)));
   });
 
-  it("numbers the weeks ahead when no dates are given, and takes one coverage level", () => {
-    const out = outlook(rates, 2, "lastweek", [[80]]);
+  it("numbers the weeks ahead when no dates are given, and takes one coverage level", async () => {
+    const out = await outlook(rates, 2, "lastweek", [[80]]);
     expect(out.map((r) => r[0])).toEqual([1, 2]);
     expect(out[1]).toHaveLength(4);
     expect(out[1][2]).toBeCloseTo(104 - Z80 * Math.sqrt(5), TOL);
@@ -184,13 +207,13 @@ describe("OUTLOOK", () => {
     expect(readCoverage(null)).toBeUndefined();
   });
 
-  it("chooses the core's default method when none is given (lastweek below two years)", () => {
-    const out = outlook(rates, 1, OMITTED, OMITTED, dates);
+  it("chooses the core's default method when none is given (lastweek below two years)", async () => {
+    const out = await outlook(rates, 1, OMITTED, OMITTED, dates);
     expect(out[0][1]).toBeCloseTo(104, TOL);
   });
 
-  it("gives #VALUE! with the intake's sentence for text among the rates", () => {
-    const err = excelError(() => outlook([[100], ["n/a"], [101]], 2));
+  it("gives #VALUE! with the intake's sentence for text among the rates", async () => {
+    const err = await excelErrorAsync(outlook([[100], ["n/a"], [101]], 2));
     expect(err.code).toBe("#VALUE!");
     expect(err.message).toMatch(/Row 2 holds "n\/a"/);
   });
@@ -200,25 +223,25 @@ describe("OUTLOOK", () => {
     ["weeks = 2.5", () => outlook(rates, 2.5)],
     ["coverage 120", () => outlook(rates, 2, "lastweek", [[120]])],
     ["coverage 0", () => outlook(rates, 2, "lastweek", [[0]])],
-  ])("gives #NUM! for an impossible number (%s)", (_label, call) => {
-    expect(excelError(call).code).toBe("#NUM!");
+  ])("gives #NUM! for an impossible number (%s)", async (_label, call) => {
+    expect((await excelErrorAsync(call())).code).toBe("#NUM!");
   });
 
-  it("gives #VALUE! for text coverage and for an unknown method", () => {
-    expect(excelError(() => outlook(rates, 2, "lastweek", [["high"]])).code).toBe("#VALUE!");
-    const err = excelError(() => outlook(rates, 2, "crystalball"));
+  it("gives #VALUE! for text coverage and for an unknown method", async () => {
+    expect((await excelErrorAsync(outlook(rates, 2, "lastweek", [["high"]]))).code).toBe("#VALUE!");
+    const err = await excelErrorAsync(outlook(rates, 2, "crystalball"));
     expect(err.code).toBe("#VALUE!");
     expect(err.message).toMatch(/"crystalball" is not available/);
-    // "auto" is a backtest of every method: refused in a cell rather than holding Excel up.
-    const auto = excelError(() => outlook(rates, 2, " Auto "));
-    expect(auto.code).toBe("#VALUE!");
-    expect(auto.message).toMatch(/cannot use "auto" yet/);
+    // "auto" runs on the engine's workers now; five weeks are too few for its backtest.
+    const auto = await excelErrorAsync(outlook(rates, 2, " Auto "));
+    expect(auto.code).toBe("#N/A");
+    expect(auto.message).toMatch(/backtest needs more weeks/);
   });
 
-  it("gives #N/A for too little data", () => {
-    expect(excelError(() => outlook([[100], [101]], 2)).code).toBe("#N/A");
+  it("gives #N/A for too little data", async () => {
+    expect((await excelErrorAsync(outlook([[100], [101]], 2))).code).toBe("#N/A");
     // The seasonal naive needs more than a year of weeks.
-    const err = excelError(() => outlook(rates, 2, "lastyear"));
+    const err = await excelErrorAsync(outlook(rates, 2, "lastyear"));
     expect(err.code).toBe("#N/A");
     expect(err.message).toMatch(/needs at least \d+ weeks/);
   });

@@ -1,0 +1,162 @@
+/**
+ * Arguments of the worksheet functions as Excel hands them over (numbers, text, booleans,
+ * null for an omitted optional argument, 2-D arrays for ranges) read into core options, and
+ * report tables written back as the 2-D arrays Excel spills. Wrong kinds are #VALUE!,
+ * impossible numbers #NUM!, each with a sentence.
+ */
+import type { RefitMode } from "../core/evaluate/backtest";
+import type { Direction } from "../core/outlook/paths";
+import type { Cell, ReportTable } from "../core/report";
+import { dateToExcelSerial, parseIsoDateText } from "../core/series/excelDate";
+import { ArgumentError, cellError } from "./errors";
+
+/** One cell of a returned array. */
+export type OutCell = number | string | boolean | CustomFunctions.Error;
+
+/** Excel passes null (or nothing) for an omitted optional argument. */
+export function omitted(v: unknown): boolean {
+  return v === null || v === undefined || (typeof v === "string" && v.trim() === "");
+}
+
+/** A single cell, whether Excel passed it as a value or as a 1×1 range. */
+export function single(v: unknown): unknown {
+  if (Array.isArray(v)) {
+    const flat = (v as unknown[]).flat();
+    return flat.length === 1 ? flat[0] : v;
+  }
+  return v;
+}
+
+/** Coverage levels from a number or a block of numbers; blanks inside a block are skipped. */
+export function readCoverage(coverage: unknown): number[] | undefined {
+  if (omitted(coverage)) return undefined;
+  const cells: unknown[] = Array.isArray(coverage) ? (coverage as unknown[]).flat() : [coverage];
+  const levels: number[] = [];
+  for (const c of cells) {
+    if (omitted(c)) continue;
+    if (typeof c !== "number" || !Number.isFinite(c)) {
+      throw new ArgumentError("#VALUE!", "Coverage must be a number such as 80, or a row or column of numbers such as 80 and 95.");
+    }
+    levels.push(c);
+  }
+  return levels.length > 0 ? levels : undefined;
+}
+
+/** A number argument: #VALUE! when it is not a number. Range checks are the core's (#NUM!). */
+export function readNumber(v: unknown, what: string): number {
+  const x = single(v);
+  if (typeof x !== "number" || !Number.isFinite(x)) throw new ArgumentError("#VALUE!", `${what} must be a number; got ${describe(x)}.`);
+  return x;
+}
+
+/** A whole number in [min, max]: #VALUE! when not a number, #NUM! when out of range or fractional. */
+export function readWhole(v: unknown, what: string, min: number, max: number): number {
+  const x = readNumber(v, what);
+  if (!Number.isInteger(x) || x < min || x > max) throw new ArgumentError("#NUM!", `${what} must be a whole number from ${min} to ${max}; got ${x}.`);
+  return x;
+}
+
+function describe(x: unknown): string {
+  if (typeof x === "string") return `"${x}"`;
+  if (Array.isArray(x)) return "a range of several cells";
+  return String(x);
+}
+
+export function readText(v: unknown, what: string): string | undefined {
+  const x = single(v);
+  if (omitted(x)) return undefined;
+  if (typeof x !== "string") throw new ArgumentError("#VALUE!", `${what} must be text; got ${describe(x)}.`);
+  return x.trim();
+}
+
+export function readMethod(method: unknown): string | undefined {
+  const code = readText(method, 'The method (a code such as "tbats")');
+  return code?.toLowerCase();
+}
+
+/** Method codes from text ("tbats, sarima") or a range of text cells. */
+export function readMethods(v: unknown): string[] | undefined {
+  if (omitted(v)) return undefined;
+  const cells = Array.isArray(v) ? (v as unknown[]).flat() : [v];
+  const out: string[] = [];
+  for (const c of cells) {
+    if (omitted(c)) continue;
+    if (typeof c !== "string") throw new ArgumentError("#VALUE!", `Methods are codes written as text, such as "tbats, sarima"; got ${describe(c)}.`);
+    out.push(...c.split(/[,;\s]+/).map((m) => m.trim().toLowerCase()).filter((m) => m.length > 0));
+  }
+  return out.length > 0 ? out : undefined;
+}
+
+export function readDirection(v: unknown): Direction {
+  const d = readText(v, 'The direction ("above" or "below")');
+  if (d === undefined) return "above";
+  const key = d.toLowerCase();
+  if (key === "above" || key === "below") return key;
+  throw new ArgumentError("#VALUE!", `The direction is "above" or "below"; got "${d}".`);
+}
+
+/** "every" (default), "fixed", or a whole number of weeks between re-estimations. */
+export function readRefit(v: unknown): RefitMode {
+  const x = single(v);
+  if (omitted(x)) return "every";
+  if (typeof x === "number") {
+    if (!Number.isInteger(x) || x < 1 || x > 52) throw new ArgumentError("#NUM!", `Re-estimation every N weeks takes a whole N from 1 to 52; got ${x}.`);
+    return x === 1 ? "every" : x;
+  }
+  if (typeof x === "string" && ["every", "fixed"].includes(x.trim().toLowerCase())) return x.trim().toLowerCase() as "every" | "fixed";
+  throw new ArgumentError("#VALUE!", `Re-estimation is "every" (every week), "fixed" (never) or a number of weeks; got ${describe(x)}.`);
+}
+
+/** The header-row switch: TRUE, 1 or "yes" puts the column names on top; default no header. */
+export function readHeaders(v: unknown): boolean {
+  const x = single(v);
+  if (omitted(x)) return false;
+  if (typeof x === "boolean") return x;
+  if (typeof x === "number") return x !== 0;
+  if (typeof x === "string" && ["yes", "true"].includes(x.trim().toLowerCase())) return true;
+  if (typeof x === "string" && ["no", "false"].includes(x.trim().toLowerCase())) return false;
+  throw new ArgumentError("#VALUE!", `The header switch is TRUE or FALSE; got ${describe(x)}.`);
+}
+
+export function readDates(dates: unknown): unknown[][] | undefined {
+  if (omitted(dates)) return undefined;
+  return Array.isArray(dates) ? (dates as unknown[][]) : [[dates]];
+}
+
+function isDateColumn(name: string): boolean {
+  return /^week ending$|week ending$/i.test(name);
+}
+
+/** A report cell as a worksheet cell: ISO dates in a date column become Excel serials. */
+function outCell(c: Cell, dateColumn: boolean): OutCell {
+  if (typeof c === "number") return Number.isFinite(c) ? c : "";
+  if (c === null) return "";
+  if (dateColumn) {
+    const d = parseIsoDateText(c);
+    if (d) return dateToExcelSerial(d);
+  }
+  return c;
+}
+
+/** The chosen columns of a report table (all when none are named), with the header row when asked. */
+export function tableOut(t: ReportTable, headers: boolean, columns?: string[]): OutCell[][] {
+  const idx = (columns ?? t.columns).map((c) => {
+    const i = t.columns.indexOf(c);
+    if (i < 0) throw new Error(`report table "${t.title}" has no column "${c}"`);
+    return i;
+  });
+  const rows = t.rows.map((r) => idx.map((i) => outCell(r[i], isDateColumn(t.columns[i]))));
+  return headers ? [idx.map((i) => t.columns[i]), ...rows] : rows;
+}
+
+export function column(t: ReportTable, name: string): number {
+  const i = t.columns.indexOf(name);
+  if (i < 0) throw new Error(`report table "${t.title}" has no column "${name}"`);
+  return i;
+}
+
+/** A numeric result cell: #N/A with a sentence where no value could be computed, never NaN or blank. */
+export function numberCell(c: Cell): number | CustomFunctions.Error {
+  if (typeof c === "number" && Number.isFinite(c)) return c;
+  return cellError("#N/A", "No value could be computed for this week.");
+}

@@ -22,6 +22,7 @@ import { functionsEngine } from "./engine";
 import {
   column,
   numberCell,
+  omitted,
   readCoverage,
   readDates,
   readDirection,
@@ -32,10 +33,12 @@ import {
   readRefit,
   readText,
   readWhole,
+  single,
   tableOut,
   type OutCell,
 } from "./read";
-import { dateToExcelSerial, parseIsoDateText } from "../core/series/excelDate";
+import { dateToExcelSerial, parseIsoDateText, readDateCell } from "../core/series/excelDate";
+import { isoDate } from "../core/series/calendar";
 
 export { readCoverage } from "./read";
 export type { OutCell } from "./read";
@@ -186,17 +189,48 @@ export async function weekfactors(rates: any[][], dates?: any[][], kind?: string
 }
 
 /**
- * Trend, seasonal and remainder of each week, from an STL decomposition of the rates.
+ * The decomposition's rows lined up with the input's rows, so the result spills beside the
+ * rates: a dated row gets its own week's parts (a week the dates skip has no input row, so it
+ * is left out), an undated row the parts at its position; a header row or a row the intake
+ * trimmed (blank at either end) gets empty cells, or the column names for the header when asked.
+ */
+function alignedDecomposition(t: ReportTable, rates: unknown[][], dates: unknown[][] | undefined, hadHeader: boolean, headers: boolean): OutCell[][] {
+  const parts = ["Trend", "Seasonal", "Remainder"];
+  const body = tableOut(t, false, parts);
+  const blank = (): OutCell[] => parts.map(() => "");
+  const out: OutCell[][] = [];
+  const top = hadHeader ? 1 : 0;
+  if (hadHeader) out.push(headers ? [...parts] : blank());
+  if (dates) {
+    const byWeek = new Map<string, OutCell[]>();
+    t.rows.forEach((r, i) => byWeek.set(String(r[0]), body[i]));
+    for (let i = top; i < rates.length; i++) {
+      const d = readDateCell(single(dates[i]));
+      out.push((d.kind === "date" ? byWeek.get(isoDate(d.date)) : undefined) ?? blank());
+    }
+  } else {
+    let first = top;
+    while (first < rates.length && omitted(single(rates[first]))) first++;
+    for (let i = top; i < rates.length; i++) out.push(body[i - first] ?? blank());
+  }
+  return headers && !hadHeader ? [[...parts], ...out] : out;
+}
+
+/**
+ * Trend, seasonal and remainder of each week, from an STL decomposition of the rates, one row per input row.
  * @customfunction DECOMPOSE
- * @param rates Weekly rates, oldest first, at least two years: one column or row of cells, such as B2:B400.
+ * @param rates Weekly rates, oldest first, at least two years: one column of cells, such as B2:B400.
  * @param [dates] Week-ending dates beside the rates, such as A2:A400.
- * @param [headers] Whether the first row of the result holds the column names, such as TRUE. If omitted: no header row.
- * @returns One row per week: trend, seasonal, remainder (factors when on log rates: rate = trend × seasonal × remainder).
+ * @param [headers] Whether the first row of the result holds the column names, such as TRUE. If omitted: no header row (a header cell on top of the rates still gets a row, left empty, so the result lines up).
+ * @returns One row per input row: trend, seasonal, remainder (factors when on log rates: rate = trend × seasonal × remainder).
  */
 export async function decompose(rates: any[][], dates?: any[][], headers?: boolean): Promise<any[][]> {
   return guardedAsync(async () => {
     const report = await analysed(rates, dates, { method: "lastweek", horizon: 1, checks: false, decompose: true });
-    return tableOut(present(report.tables.decomposition, "The decomposition"), readHeaders(headers), ["Trend", "Seasonal", "Remainder"]);
+    const t = present(report.tables.decomposition, "The decomposition");
+    const datesIn = readDates(dates);
+    const hadHeader = report.tables.data.rows.some((r) => r[0] === "Series" && r[1] !== null);
+    return alignedDecomposition(t, rates as unknown[][], datesIn, hadHeader, readHeaders(headers));
   });
 }
 

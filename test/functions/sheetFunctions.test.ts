@@ -92,11 +92,26 @@ describe("each function equals analyse() on the same cells", () => {
     expect(Math.abs(product / 52)).toBeLessThan(0.01); // multiplicative factors average about 1
   });
 
-  test("DECOMPOSE: trend, seasonal and remainder per week", async () => {
+  test("DECOMPOSE: trend, seasonal and remainder lined up with the input rows", async () => {
     const out = await decompose(rateCells, dateCells);
     const want = analysis.analyse(series, { method: "lastweek", horizon: 1, checks: false, decompose: true }).tables.decomposition;
-    expect(out).toEqual(cells(want, ["Trend", "Seasonal", "Remainder"]));
-    expect(out).toHaveLength(170);
+    // The header cell's row stays empty so the spill lines up with the rates beside it.
+    expect(out).toHaveLength(rateCells.length);
+    expect(out[0]).toEqual(["", "", ""]);
+    expect(out.slice(1)).toEqual(cells(want, ["Trend", "Seasonal", "Remainder"]));
+    expect((await decompose(rateCells, dateCells, true))[0]).toEqual(["Trend", "Seasonal", "Remainder"]);
+  });
+
+  test("DECOMPOSE: a week the dates skip has no input row, and the rows after it keep their own weeks", async () => {
+    const skipRates = rateCells.filter((_, i) => i !== 51);
+    const skipDates = dateCells.filter((_, i) => i !== 51);
+    const out = await decompose(skipRates, skipDates);
+    expect(out).toHaveLength(skipRates.length);
+    const skipped = readWeekly(skipRates, { dates: skipDates });
+    expect(skipped.values.length).toBe(170); // the intake put the missing week back (filled)
+    const full = cells(analysis.analyse(skipped, { method: "lastweek", horizon: 1, checks: false, decompose: true }).tables.decomposition, ["Trend", "Seasonal", "Remainder"]);
+    expect(out.slice(1, 51)).toEqual(full.slice(0, 50));
+    expect(out.slice(51)).toEqual(full.slice(51));
   });
 
   test("STATIONARITY: every test, or only those on one form of the rates", async () => {

@@ -193,7 +193,11 @@ async function forecastVerb(argv: string[]): Promise<number> {
     }
     lines.push(cells.join("\t"));
   }
-  for (const w of out.warnings) lines.push(w);
+  // The terminal gets what was done to the data and how the method was chosen; the model's
+  // own notes (every member's, for a combination) are in the JSON.
+  const shown = out.warnings.filter((w) => series[0].warnings.includes(w) || w.startsWith("Chosen by "));
+  for (const w of shown) lines.push(w);
+  if (out.warnings.length > shown.length) { const k = out.warnings.length - shown.length; lines.push(`${k} note${k === 1 ? "" : "s"} on the fitted model: see --json.`); }
   lines.push(CAUTION);
   process.stdout.write(`${lines.join("\n")}\n`);
   return EXIT_OK;

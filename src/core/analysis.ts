@@ -21,6 +21,7 @@ import type { CheckTables } from "./diagnostics/battery";
 import { runChecks } from "./diagnostics/battery";
 import { decompositionTable } from "./diagnostics/seasonality/decomposition";
 import type { FactorKind } from "./diagnostics/seasonality/factors";
+import { checkWindow, type LunarWindow } from "./series/lunarRegressors";
 import { checkSpans, checkThresholds, crossingChances, outlookPaths, spanAverages, type Span, type Threshold } from "./outlook/paths";
 import { chanceTable, meanAheadTable } from "./outlook/tables";
 
@@ -48,6 +49,12 @@ export interface AnalysisOptions {
   decompose?: boolean;
   /** Seasonal factors and decomposition multiplicative (on log rates) or additive; default: multiplicative when every rate is positive. */
   seasonKind?: FactorKind;
+  /**
+   * Calendar regressors: `lunarNewYear` true (the default window) or a window of weeks before
+   * and after the holiday (series/lunarRegressors.ts). Used by SARIMA, in the fit and in the
+   * backtest; needs dates. Default: none.
+   */
+  calendar?: { lunarNewYear?: boolean | Partial<LunarWindow> };
 }
 
 export type ChoiceMetric = "mase" | "mape" | "rmse" | "smape";
@@ -64,6 +71,7 @@ export interface ResolvedOptions {
   thresholds: Threshold[];
   decompose: boolean;
   seasonKind: FactorKind | null;
+  calendar: { lunarNewYear: LunarWindow | null };
 }
 
 /** Progress and cancellation for the slow part of an analysis (the backtest). */
@@ -136,7 +144,26 @@ export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = 
     thresholds,
     decompose: options.decompose ?? false,
     seasonKind: checkKind(options.seasonKind),
+    calendar: { lunarNewYear: lunarOption(series, options.calendar?.lunarNewYear) },
   };
+}
+
+function lunarOption(series: WeeklySeries, v: boolean | Partial<LunarWindow> | undefined): LunarWindow | null {
+  if (v === undefined || v === false) return null;
+  if (series.dates.length !== series.values.length || series.values.length === 0) {
+    throw new InputError("BAD_OPTION", "Lunar-new-year effects need the week-ending dates beside the rates.");
+  }
+  return checkWindow(v === true ? {} : v);
+}
+
+/** Methods that take calendar regressors so far. */
+const CALENDAR_METHODS = new Set(["sarima"]);
+
+/** The fit options a method gets from the analysis options (calendar regressors for SARIMA). */
+function calendarOptions(series: WeeklySeries, opts: ResolvedOptions, code: string): Record<string, unknown> | undefined {
+  const w = opts.calendar.lunarNewYear;
+  if (!w || !CALENDAR_METHODS.has(code)) return undefined;
+  return { calendar: { start: isoDate(series.dates[0]), lunarNewYear: w } };
 }
 
 function checkKind(k: unknown): FactorKind | null {
@@ -198,7 +225,9 @@ export function backtestOptionsFor(series: WeeklySeries, opts: ResolvedOptions):
       throw new InputError("TOO_FEW_POINTS", `A backtest needs more weeks before its test window; the series has ${n}. Use fewer test weeks.`);
     }
   }
-  return { ...asked, methods, levels: asked.levels ?? opts.levels };
+  const withCalendar = calendarOptions(series, opts, "sarima");
+  const methodOptions = withCalendar ? { ...asked.methodOptions, sarima: { ...asked.methodOptions?.sarima, ...withCalendar } } : asked.methodOptions;
+  return { ...asked, methods, levels: asked.levels ?? opts.levels, ...(methodOptions ? { methodOptions } : {}) };
 }
 
 /** Whether an analysis with these options runs a backtest. */
@@ -249,7 +278,12 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
     throw new InputError("TOO_FEW_POINTS", `${model.label} needs at least ${need} weeks of rates; the data has ${n}.`);
   }
   const comboMembers = code === "combo" && bt ? opts.backtest?.comboMembers : undefined;
-  const fitted = model.fit(series.values, comboMembers ? { members: comboMembers } : undefined);
+  const fitOptions = comboMembers ? { members: comboMembers } : calendarOptions(series, opts, code);
+  const fitted = model.fit(series.values, fitOptions);
+  const calendarNote =
+    opts.calendar.lunarNewYear && !CALENDAR_METHODS.has(code)
+      ? [`Lunar-new-year effects are used by SARIMA only so far; ${model.label} was fitted without them.`]
+      : [];
   const fc = fitted.forecast(opts.horizon, opts.levels);
   const dated = series.dates.length === n && n > 0;
   const last = dated ? series.dates[n - 1] : null;
@@ -304,7 +338,7 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
 
   return {
     tables: { data: describeData(series), outlook, fit, ...extra, ...checks.tables },
-    warnings: [...series.warnings, ...(bt?.note ? [bt.note] : []), ...summary.notes, ...checks.skipped],
+    warnings: [...series.warnings, ...(bt?.note ? [bt.note] : []), ...calendarNote, ...summary.notes, ...checks.skipped],
     lastWeek: last ? isoDate(last) : null,
     options: opts,
     model: { method: code, label: model.label, structure: summary.structure },

@@ -35,6 +35,8 @@ import { estimate, prepare } from "./estimate";
 import { SarimaFitted } from "./model";
 import { smallestRootModulus } from "./roots";
 import { MAX_ORDER, defaultSpec, orderLabel, validateSpec, type RegressorSet, type SarimaOrder, type SarimaSpec } from "./spec";
+import { parseIsoDateText } from "../../series/excelDate";
+import { lunarRegressors, type LunarWindow } from "../../series/lunarRegressors";
 
 export type SeasonalityMode = "fourier" | "lag52" | "none" | "auto";
 
@@ -57,6 +59,19 @@ export interface SarimaOptions {
   biasAdjust?: boolean;
   /** Calendar or other regressors on the level scale. */
   extra?: RegressorSet;
+  /**
+   * Calendar regressors described as data (so the option crosses to a worker): the week-ending
+   * date of the first week, and the lunar-new-year window (lunarRegressors.ts). Ignored when
+   * `extra` is given.
+   */
+  calendar?: { start: string; lunarNewYear?: Partial<LunarWindow> };
+}
+
+function calendarRegressors(c: SarimaOptions["calendar"]): RegressorSet | undefined {
+  if (!c || !c.lunarNewYear) return undefined;
+  const start = parseIsoDateText(c.start);
+  if (!start) throw new InputError("BAD_OPTION", `The calendar's first week must be a date written as YYYY-MM-DD; got "${String(c.start)}".`);
+  return lunarRegressors(start, c.lunarNewYear);
 }
 
 /** Fewest weeks for seasonal terms: two full years plus room for the ARMA part. */
@@ -190,7 +205,7 @@ export function autoSarima(y: Float64Array, options: SarimaOptions = {}): Sarima
   }
   const tried = new Map<string, Candidate>();
   let fits = 0;
-  const base = defaultSpec({ d, D, s, lambda, fourierPeriod: WEEKLY_PERIOD, extra: options.extra });
+  const base = defaultSpec({ d, D, s, lambda, fourierPeriod: WEEKLY_PERIOD, extra: options.extra ?? calendarRegressors(options.calendar) });
   const constantAllowed = d + D <= 1;
 
   const attempt = (spec: SarimaSpec): Candidate => {

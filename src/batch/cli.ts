@@ -30,6 +30,7 @@ const COMMON: Record<string, FlagSpec> = {
   methods: { value: true, help: "the methods auto compares, such as tbats,sarima,lastyear" },
   backtest: { value: true, help: "off, or settings such as weeks=52,ahead=4,refit=every (refit: every, fixed or a number of weeks)" },
   choose: { value: true, help: "the measure auto chooses by: mase (default), mape, rmse or smape" },
+  "lunar-new-year": { value: false, help: "add lunar-new-year regressors (used by SARIMA so far)" },
   json: { value: false, help: "print JSON on stdout instead of the summary" },
   timing: { value: false, help: "include run times in the JSON (they differ from run to run)" },
   quiet: { value: false, help: "no progress on stderr" },
@@ -120,6 +121,7 @@ function analysisOptions(p: Parsed, base: AnalysisOptions): AnalysisOptions {
   o.backtest = bt;
   if (o.method === "auto" && bt === null) throw new UsageError("--method auto chooses by backtest; it cannot go with --backtest off. Name a method instead.");
   if (has(p, "no-checks")) o.checks = false;
+  if (has(p, "lunar-new-year")) o.calendar = { lunarNewYear: true };
   return o;
 }
 

@@ -102,6 +102,14 @@ describe("forecast --json", () => {
     expect(timed.seconds).toBeGreaterThan(0);
   });
 
+  test("--lunar-new-year gives SARIMA the holiday regressors", () => {
+    const base = ["forecast", "--csv", "lane.csv", "--horizon", "2", "--method", "sarima", "--json", "--quiet"];
+    const withCal = JSON.parse(fairlead(...base, "--lunar-new-year").stdout) as { chosen: string };
+    const without = JSON.parse(fairlead(...base).stdout) as { chosen: string };
+    expect(withCal.chosen).toMatch(/\+ 5 further regressors$/);
+    expect(without.chosen).not.toMatch(/further regressors/);
+  });
+
   test("--coverage sets the levels and the bound keys", () => {
     const r = fairlead("forecast", "--csv", "lane.csv", "--horizon", "2", "--method", "lastweek", "--coverage", "50,90", "--json");
     expect(r.code).toBe(0);

@@ -29,6 +29,8 @@ export interface StampInput {
 export function optionsPhrase(o: ResolvedOptions): string {
   const parts = [`${o.horizon} weeks ahead`, `coverage ${o.levels.map((l) => `${l}%`).join(", ")}`];
   parts.push(o.checks ? "checks on" : "checks off");
+  const lny = o.calendar?.lunarNewYear;
+  if (lny) parts.push(`lunar-new-year weeks −${lny.before} to +${lny.after} as regressors (SARIMA)`);
   if (o.backtest || o.method === "auto") {
     const b = o.backtest ?? {};
     const modes = (b.modes ?? ["every"]).map((m) => modePhrase(m)).join("; ");

@@ -9,6 +9,7 @@ import * as path from "path";
 import ExcelJS from "exceljs";
 import { readWeekly } from "../core/series/intake";
 import { InputError, isInputError } from "../core/series/errors";
+import { parseNumberText } from "../core/series/cells";
 import { readDateCell } from "../core/series/excelDate";
 import type { DateSystem } from "../core/series/excelDate";
 import type { WeeklySeries } from "../core/series/types";
@@ -186,7 +187,8 @@ function dateShare(block: Block, j: number): number {
 }
 
 function numberShare(block: Block, j: number): number {
-  return share(block, j, (v) => typeof v === "number" || (typeof v === "string" && /^\s*-?[\d.,\s]+\s*$/.test(v)));
+  // Numeric text as the intake reads it (separators, currency codes): cells.ts.
+  return share(block, j, (v) => typeof v === "number" || (typeof v === "string" && parseNumberText(v) !== undefined));
 }
 
 export interface ColumnChoice {

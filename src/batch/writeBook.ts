@@ -12,6 +12,7 @@ import type { CellStyle, ManagedSheet } from "../core/present/sheets";
 import { MANAGED_SHEETS } from "../core/present/sheets";
 import { MANAGED_MARK } from "../core/present/stamp";
 import { columnLetters } from "../core/present/a1";
+import { parseIsoDateText } from "../core/series/excelDate";
 import { UsageError } from "./errors";
 
 const FORMATS: Partial<Record<CellStyle, string>> = {
@@ -20,11 +21,6 @@ const FORMATS: Partial<Record<CellStyle, string>> = {
   ratio: "0.0000",
   count: "0",
 };
-
-function isoToDate(s: string): Date | null {
-  const m = /^(\d{4})-(\d{2})-(\d{2})$/.exec(s);
-  return m ? new Date(Date.UTC(Number(m[1]), Number(m[2]) - 1, Number(m[3]))) : null;
-}
 
 function styleCell(cell: ExcelJS.Cell, style: CellStyle): void {
   const fmt = FORMATS[style];
@@ -96,7 +92,7 @@ export function writeManaged(wb: ExcelJS.Workbook, sheets: ManagedSheet[], image
         if (v === null) return;
         const style = styleAt.get(`${r},${c}`);
         const cell = ws.getCell(r + 1, c + 1);
-        if (style === "date" && typeof v === "string") cell.value = isoToDate(v) ?? v;
+        if (style === "date" && typeof v === "string") cell.value = parseIsoDateText(v) ?? v;
         else cell.value = typeof v === "number" && !Number.isFinite(v) ? null : v;
         if (style) styleCell(cell, style);
       });

@@ -21,3 +21,8 @@ export function table(title: string, columns: string[], rows: Cell[][], notes: s
   }
   return { title, columns, rows, notes };
 }
+
+/** Report columns (and label rows) whose cells are ISO dates, which sinks write as real dates. */
+export function isDateColumn(name: string): boolean {
+  return /^(from |to |first |last )?week ending$|^week( forecast)?$|^last week seen$/i.test(name);
+}

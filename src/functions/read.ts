@@ -6,7 +6,7 @@
  */
 import type { RefitMode } from "../core/evaluate/backtest";
 import type { Direction } from "../core/outlook/paths";
-import type { Cell, ReportTable } from "../core/report";
+import { isDateColumn, type Cell, type ReportTable } from "../core/report";
 import { dateToExcelSerial, parseIsoDateText } from "../core/series/excelDate";
 import { ArgumentError, cellError } from "./errors";
 
@@ -121,10 +121,6 @@ export function readHeaders(v: unknown): boolean {
 export function readDates(dates: unknown): unknown[][] | undefined {
   if (omitted(dates)) return undefined;
   return Array.isArray(dates) ? (dates as unknown[][]) : [[dates]];
-}
-
-function isDateColumn(name: string): boolean {
-  return /^week ending$|week ending$/i.test(name);
 }
 
 /** A report cell as a worksheet cell: ISO dates in a date column become Excel serials. */

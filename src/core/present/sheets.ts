@@ -9,7 +9,7 @@
  * blank row), and its chart to the right of the tables.
  */
 import type { Report } from "../analysis";
-import type { Cell, ReportTable } from "../report";
+import { isDateColumn, type Cell, type ReportTable } from "../report";
 import type { WeeklySeries } from "../series/types";
 import type { ChartSpec } from "./chartSpec";
 import { backtestChart, outlookChart, seasonChart } from "./charts";
@@ -94,10 +94,6 @@ export const CHART_PX: Record<ChartSpec["kind"], { width: number; height: number
 
 function chartRows(spec: ChartSpec): number {
   return Math.ceil(CHART_PX[spec.kind].height / CELL_PX.height);
-}
-
-function isDateColumn(name: string): boolean {
-  return /^week( ending| forecast)?$|^last week seen$|^first week ending$|^last week ending$/i.test(name);
 }
 
 function isCountColumn(name: string): boolean {

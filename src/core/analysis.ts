@@ -166,6 +166,16 @@ function calendarOptions(series: WeeklySeries, opts: ResolvedOptions, code: stri
   return { calendar: { start: isoDate(series.dates[0]), lunarNewYear: w } };
 }
 
+/** A method's fit options: the combination's members (as backtested) and, through it or directly, SARIMA's calendar. */
+function fitOptionsFor(series: WeeklySeries, opts: ResolvedOptions, code: string, comboMembers: string[] | undefined): Record<string, unknown> | undefined {
+  if (code !== "combo") return calendarOptions(series, opts, code);
+  const sarima = calendarOptions(series, opts, "sarima");
+  const o: Record<string, unknown> = {};
+  if (comboMembers) o.members = comboMembers;
+  if (sarima) o.memberOptions = { sarima };
+  return Object.keys(o).length > 0 ? o : undefined;
+}
+
 function checkKind(k: unknown): FactorKind | null {
   if (k === undefined || k === null) return null;
   if (k === "multiplicative" || k === "additive") return k;
@@ -278,12 +288,12 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
     throw new InputError("TOO_FEW_POINTS", `${model.label} needs at least ${need} weeks of rates; the data has ${n}.`);
   }
   const comboMembers = code === "combo" && bt ? opts.backtest?.comboMembers : undefined;
-  const fitOptions = comboMembers ? { members: comboMembers } : calendarOptions(series, opts, code);
-  const fitted = model.fit(series.values, fitOptions);
-  const calendarNote =
-    opts.calendar.lunarNewYear && !CALENDAR_METHODS.has(code)
-      ? [`Lunar-new-year effects are used by SARIMA only so far; ${model.label} was fitted without them.`]
-      : [];
+  const fitted = model.fit(series.values, fitOptionsFor(series, opts, code, comboMembers));
+  const calendarNote = !opts.calendar.lunarNewYear || CALENDAR_METHODS.has(code)
+    ? []
+    : code === "combo"
+      ? ["Lunar-new-year effects are used by SARIMA only so far: in the combination, its SARIMA member takes them."]
+      : [`Lunar-new-year effects are used by SARIMA only so far; ${model.label} was fitted without them.`];
   const fc = fitted.forecast(opts.horizon, opts.levels);
   const dated = series.dates.length === n && n > 0;
   const last = dated ? series.dates[n - 1] : null;

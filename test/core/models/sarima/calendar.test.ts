@@ -152,3 +152,21 @@ describe("analyse() with calendar: { lunarNewYear }", () => {
     expect(() => analyse(undated, { method: "sarima", calendar: { lunarNewYear: true } })).toThrow(/need the week-ending dates/);
   });
 });
+
+describe("a combination with calendar: { lunarNewYear }", () => {
+  test("its SARIMA member is fitted with the holiday weeks, as in its backtest", () => {
+    const n = 9 * 52 + 20;
+    const y = simulate(41, n, true);
+    const start = Date.parse(`${START}T00:00:00Z`);
+    const series = { dates: Array.from({ length: n }, (_, t) => new Date(start + t * WEEK)), values: y, filled: new Array<boolean>(n).fill(false), warnings: [] };
+    const calendar = { lunarNewYear: true };
+    const bt = { methods: ["sarima", "lastweek", "combo"], comboMembers: ["sarima", "lastweek"], testWeeks: 8, horizon: 2, modes: ["fixed" as const] };
+    const combo = analyse(series, { method: "combo", horizon: 6, checks: false, calendar, backtest: bt });
+    const sarimaOnly = analyse(series, { method: "sarima", horizon: 6, checks: false, calendar });
+    const naive = analyse(series, { method: "lastweek", horizon: 6, checks: false });
+    const point = (r: typeof combo): number[] => r.tables.outlook.rows.map((row) => Number(row[2]));
+    // The mean rule: the combination's point is the average of its members' points (combination/fit.ts).
+    point(combo).forEach((p, s) => expect(Math.abs(p - (point(sarimaOnly)[s] + point(naive)[s]) / 2)).toBeLessThan(1e-9 * p));
+    expect(combo.warnings.join(" ")).toMatch(/in the combination, its SARIMA member takes them/);
+  });
+});

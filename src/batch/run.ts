@@ -8,11 +8,10 @@ import * as path from "path";
 import type ExcelJS from "exceljs";
 import type { AnalysisOptions, Report } from "../core/analysis";
 import { resolveOptions } from "../core/analysis";
-import { isoDate } from "../core/series/calendar";
 import type { WeeklySeries } from "../core/series/types";
 import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../core/present/sheets";
-import type { StampInput } from "../core/present/stamp";
-import { analyseInEngine, createEngine, type Engine, type Transport } from "../engine";
+import { stampOf, type StampInput } from "../core/present/stamp";
+import { analyseMany, createEngine, type Engine, type Transport } from "../engine";
 import { NodeTransport } from "../engine/node";
 import { chartPng } from "./chartImage";
 import { UsageError } from "./errors";
@@ -81,35 +80,13 @@ export function seriesOfBlock(block: Block, columns: string[] | undefined, dates
   return chosen.rates.map((j) => readSeries(block, j, chosen.dates));
 }
 
-/** Analyses the series in one engine; progress is the mean over the series. */
-export async function analyseAll(engine: Engine, series: WeeklySeries[], options: AnalysisOptions, progress: ProgressSink): Promise<Report[]> {
-  const done = new Array<number>(series.length).fill(0);
-  const say = (i: number) => (f: number, sentence: string) => {
-    done[i] = f;
-    const mean = done.reduce((a, b) => a + b, 0) / series.length;
-    progress.update(mean, series.length > 1 ? `${series[i].name ?? `series ${i + 1}`}: ${sentence}` : sentence);
-  };
-  return Promise.all(series.map((s, i) => analyseInEngine(engine, s, options, { onProgress: say(i) })));
-}
-
-function stampOf(source: string, analysed: AnalysedSeries[], now: Date): StampInput {
-  return {
-    version: fairleadVersion(),
-    source,
-    series: analysed.map((a) => {
-      const n = a.series.values.length;
-      const dated = a.series.dates.length === n && n > 0;
-      return {
-        name: a.name,
-        first: dated ? isoDate(a.series.dates[0]) : null,
-        last: dated ? isoDate(a.series.dates[n - 1]) : null,
-        weeks: n,
-        method: a.report.model.label,
-      };
-    }),
-    options: analysed[0].report.options,
-    ranAt: now.toISOString().replace(/\.\d{3}Z$/, "Z"),
-  };
+/** Analyses the series in one engine with the same options; progress is the mean over the series. */
+export function analyseAll(engine: Engine, series: WeeklySeries[], options: AnalysisOptions, progress: ProgressSink): Promise<Report[]> {
+  return analyseMany(
+    engine,
+    series.map((s) => ({ series: s, options })),
+    { onProgress: (f, sentence) => progress.update(f, sentence) },
+  );
 }
 
 async function chartImages(sheets: ManagedSheet[]): Promise<Map<string, Uint8Array>> {
@@ -156,7 +133,7 @@ export async function runBook(settings: RunSettings, progress: ProgressSink, wri
     engine.close();
   }
   const analysed: AnalysedSeries[] = series.map((s, i) => ({ name: s.name ?? `Series ${i + 1}`, series: s, report: reports[i] }));
-  const stamp = stampOf(block.label, analysed, settings.now ?? new Date());
+  const stamp = stampOf(block.label, analysed, settings.now ?? new Date(), fairleadVersion());
   const sheets = managedSheets(analysed, stamp);
   let written: string | null = null;
   if (write) {

@@ -26,3 +26,27 @@ export async function analyseInEngine(engine: Engine, series: WeeklySeries, opti
   });
   return engine.run("analyse", { series, options, backtest }, { ...run, onProgress: scaled(BACKTEST_SHARE, 1 - BACKTEST_SHARE) });
 }
+
+/** One series and the options it is analysed with. */
+export interface AnalysisJob {
+  series: WeeklySeries;
+  options: AnalysisOptions;
+}
+
+/**
+ * Several analyses in one engine, side by side; progress is the mean share done over them,
+ * with the series' name before the sentence when there is more than one. Rejects with the
+ * first failure (the others are cancelled through the signal the caller gives).
+ */
+export function analyseMany(engine: Engine, jobs: AnalysisJob[], run: RunOptions = {}): Promise<Report[]> {
+  const done = new Array<number>(jobs.length).fill(0);
+  const report = run.onProgress;
+  const say =
+    (i: number): ProgressListener =>
+    (f, sentence) => {
+      done[i] = f;
+      const mean = done.reduce((a, b) => a + b, 0) / jobs.length;
+      report?.(mean, jobs.length > 1 ? `${jobs[i].series.name ?? `series ${i + 1}`}: ${sentence}` : sentence);
+    };
+  return Promise.all(jobs.map((j, i) => analyseInEngine(engine, j.series, j.options, { ...run, onProgress: say(i) })));
+}

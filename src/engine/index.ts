@@ -34,4 +34,4 @@ export { serve } from "./worker";
 export type { ServeHandle, ServeOptions } from "./worker";
 export type { JobRequest, Port, Transport, WorkerHandle, WorkerReply } from "./protocol";
 export { backtestInEngine } from "./backtest";
-export { analyseInEngine } from "./analyse";
+export { analyseInEngine, analyseMany, type AnalysisJob } from "./analyse";

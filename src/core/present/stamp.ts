@@ -4,6 +4,8 @@
  */
 import type { Cell } from "../report";
 import type { ResolvedOptions } from "../analysis";
+import { isoDate } from "../series/calendar";
+import type { AnalysedSeries } from "./sheets";
 import { modePhrase } from "../evaluate/backtest";
 import { DEFAULT_BACKTEST_HORIZON, DEFAULT_TEST_WEEKS } from "../evaluate/plan";
 
@@ -18,8 +20,11 @@ export interface StampInput {
   /** Where the rates came from, as a person would say it: "desk-weekly.xlsx › Rates › WeeklyRates". */
   source: string;
   /** The series analysed, each with its first and last week (ISO dates, or null when undated). */
-  series: { name: string; first: string | null; last: string | null; weeks: number; method: string }[];
-  /** The options the run used (every series shares them). */
+  series: { name: string; first: string | null; last: string | null; weeks: number; method: string; options?: ResolvedOptions }[];
+  /**
+   * The options the run used. A series analysed with other options (the pane keeps options per
+   * series) carries its own, and its Series line says them.
+   */
   options: ResolvedOptions;
   /** When the run was made, as an ISO-8601 UTC timestamp. */
   ranAt: string;
@@ -57,12 +62,40 @@ export function stampRows(stamp: StampInput, what: string): Cell[][] {
     ["As of week ending", asOfWeek(stamp)],
     ["Data", stamp.source],
   ];
+  const common = optionsPhrase(stamp.options);
+  const own = (s: StampInput["series"][number]): string | null => {
+    const p = s.options ? optionsPhrase(s.options) : common;
+    return p === common ? null : p;
+  };
   for (const s of stamp.series) {
     const span = s.first && s.last ? `${s.first} to ${s.last}` : "undated";
-    rows.push([`Series`, `${s.name}: ${s.weeks} weeks, ${span}; method ${s.method}`]);
+    const phrase = own(s);
+    rows.push([`Series`, `${s.name}: ${s.weeks} weeks, ${span}; method ${s.method}${phrase ? `; options: ${phrase}` : ""}`]);
   }
-  rows.push(["Options", optionsPhrase(stamp.options)]);
+  rows.push(["Options", stamp.series.some((s) => own(s) !== null) ? `${common} (unless a Series line says otherwise)` : common]);
   rows.push(["Made", `${stamp.ranAt} by Fairlead ${stamp.version}`]);
   rows.push(["Caution", CAUTION]);
   return rows;
+}
+
+/** The stamp of a run over analysed series; `source` says where the rates came from. */
+export function stampOf(source: string, analysed: AnalysedSeries[], ranAt: Date, version: string): StampInput {
+  return {
+    version,
+    source,
+    series: analysed.map((a) => {
+      const n = a.series.values.length;
+      const dated = a.series.dates.length === n && n > 0;
+      return {
+        name: a.name,
+        first: dated ? isoDate(a.series.dates[0]) : null,
+        last: dated ? isoDate(a.series.dates[n - 1]) : null,
+        weeks: n,
+        method: a.report.model.label,
+        options: a.report.options,
+      };
+    }),
+    options: analysed[0].report.options,
+    ranAt: ranAt.toISOString().replace(/\.\d{3}Z$/, "Z"),
+  };
 }

@@ -216,8 +216,9 @@ describe("manifest.xml", () => {
     for (const sets of [setsOf(app.Requirements), setsOf(overrides.Requirements)]) {
       expect(sets.get("SharedRuntime")).toBe("1.1");
       expect(version(sets.get("CustomFunctionsRuntime"))).toBeGreaterThanOrEqual(1.1);
-      // Range.getUsedRangeOrNullObject, used by the Data section, is ExcelApi 1.4.
-      expect(version(sets.get("ExcelApi"))).toBeGreaterThanOrEqual(1.4);
+      // The pane's change watch (Table.onChanged, Worksheet.onChanged), its chart series
+      // (ChartSeries.setValues, series.add) and NamedItem.formula are ExcelApi 1.7.
+      expect(version(sets.get("ExcelApi"))).toBeGreaterThanOrEqual(1.7);
     }
   });
 });

@@ -8,6 +8,7 @@ import type { ReportTable } from "../core/report";
 import { InputError } from "../core/series/errors";
 import { readWeekly } from "../core/series/intake";
 import type { SelectionBlocks } from "./excel/readSelection";
+import type { WeeklySeries } from "../core/series/types";
 import { cellName, columnIndex } from "../core/present/a1";
 
 /** What the pane shows after a successful read. */
@@ -40,10 +41,10 @@ export function originOf(address: string): SheetOrigin | null {
 export { cellName };
 
 /**
- * Runs the intake on the blocks read from the selection, with cell offsets relative to the
- * sheet so that an error can point at the cell. Throws the intake's InputError.
+ * The intake on blocks read from the workbook, with cell offsets relative to the sheet so that
+ * an error can point at the cell; `name` names a series whose block has no header.
  */
-export function summariseBlocks(blocks: SelectionBlocks): DataView {
+export function seriesOfBlocks(blocks: SelectionBlocks, name?: string): WeeklySeries {
   const rates = originOf(blocks.address);
   const dates = blocks.datesAddress ? originOf(blocks.datesAddress) : null;
   const series = readWeekly(blocks.values, {
@@ -51,6 +52,15 @@ export function summariseBlocks(blocks: SelectionBlocks): DataView {
     ...(rates ? { rowOffset: rates.row, colOffset: rates.col } : {}),
     ...(dates ? { dateRowOffset: dates.row, dateColOffset: dates.col } : {}),
   });
+  return series.name === undefined && name !== undefined ? { ...series, name } : series;
+}
+
+/**
+ * Runs the intake on the blocks read from the selection, with cell offsets relative to the
+ * sheet so that an error can point at the cell. Throws the intake's InputError.
+ */
+export function summariseBlocks(blocks: SelectionBlocks): DataView {
+  const series = seriesOfBlocks(blocks);
   return {
     table: describeData(series),
     ratesAddress: blocks.address,

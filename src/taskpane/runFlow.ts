@@ -1,0 +1,159 @@
+/**
+ * One run of the pane, from saved series to written sheets: read every series' cells, run
+ * analyse() for each in the engine (the same engine, and so the same result cache, as the
+ * worksheet functions), lay the managed sheets out (core/present), write them, and keep the
+ * ledger and the series list in the workbook. The host is reached only through `PaneWorkbook`
+ * (excel/paneWorkbook.ts in Excel; a stand-in in tests), so this module runs anywhere.
+ *
+ * A refresh is the same run: a series whose cells and options did not change is answered from
+ * the engine's cache without fitting anything; the one that gained a week is analysed afresh,
+ * so the refreshed sheets are exactly what a colleague's first run on that data gives.
+ */
+import type { Report } from "../core/analysis";
+import { resolveOptions } from "../core/analysis";
+import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../core/present/sheets";
+import { stampOf } from "../core/present/stamp";
+import { InputError } from "../core/series/errors";
+import type { WeeklySeries } from "../core/series/types";
+import { analyseMany, type Engine } from "../engine";
+import { isEngineCancelled, plainReason } from "../engine/errors";
+import { cellName } from "../core/present/a1";
+import { originOf, seriesOfBlocks } from "./dataSummary";
+import type { SourceBlocks } from "./excel/readSource";
+import type { WriteOptions, WriteResult } from "./excel/writeSheets";
+import type { SheetLedger } from "./ledger";
+import type { PaneSettings, SavedSeries } from "./settings";
+import { sourceLabel, type DataSource } from "./source";
+
+/** The workbook as a run needs it. */
+export interface PaneWorkbook {
+  /** The file's name, for the stamp ("desk-weekly.xlsx"); "" when unknown. */
+  name(): Promise<string>;
+  readSource(source: DataSource): Promise<SourceBlocks>;
+  write(sheets: ManagedSheet[], ledgers: Record<string, SheetLedger>, options: WriteOptions): Promise<WriteResult>;
+  saveSettings(settings: PaneSettings): Promise<void>;
+}
+
+export interface RunControl {
+  onProgress?: (fraction: number, sentence: string) => void;
+  signal?: AbortSignal;
+}
+
+export interface RunDeps {
+  workbook: PaneWorkbook;
+  engine: Engine;
+  version: string;
+  now?: () => Date;
+}
+
+export interface RunRequest {
+  series: SavedSeries[];
+  settings: PaneSettings;
+  write?: WriteOptions;
+}
+
+export interface RunOutcome {
+  analysed: AnalysedSeries[];
+  sheets: ManagedSheet[];
+  written: WriteResult;
+  /** The settings as saved after the run (series names refreshed, new ledgers). */
+  settings: PaneSettings;
+  warnings: string[];
+}
+
+/** A run that stopped before writing, with the sentence the pane shows. */
+export class RunStopped extends Error {
+  constructor(
+    message: string,
+    readonly reason: "cancelled" | "input" | "failed",
+  ) {
+    super(message);
+    this.name = "RunStopped";
+  }
+}
+
+/** Shares of the progress bar: reading, analysing, writing. */
+const READ_SHARE = 0.03;
+const WRITE_SHARE = 0.07;
+
+/** The sentence for an input problem in one series, with the sheet cell it points at. */
+export function inputSentence(e: InputError, entry: SavedSeries, blocks?: SourceBlocks): string {
+  const where = e.cell && blocks ? (() => {
+    const sheet = originOf(blocks.address)?.sheet;
+    return ` (Cell ${sheet ? `${sheet}!` : ""}${cellName(e.cell.row, e.cell.col)}.)`;
+  })() : "";
+  return `${entry.name || sourceLabel(entry.source)}: ${e.message}${where}`;
+}
+
+async function readAll(workbook: PaneWorkbook, entries: SavedSeries[]): Promise<{ series: WeeklySeries[]; names: string[] }> {
+  const series: WeeklySeries[] = [];
+  const names: string[] = [];
+  for (const entry of entries) {
+    let blocks: SourceBlocks | undefined;
+    try {
+      blocks = await workbook.readSource(entry.source);
+      const s = seriesOfBlocks(blocks, blocks.name);
+      // Bad options stop the run before any work starts, with the option's own sentence.
+      resolveOptions(s, entry.options);
+      series.push(s);
+      names.push(s.name ?? blocks.name);
+    } catch (e) {
+      if (e instanceof InputError) throw new RunStopped(inputSentence(e, entry, blocks), "input");
+      throw e;
+    }
+  }
+  return { series, names };
+}
+
+/** Runs `request.series` and writes the managed sheets; throws RunStopped or the writer's WriteRefused. */
+export async function runAnalysis(request: RunRequest, deps: RunDeps, control: RunControl = {}): Promise<RunOutcome> {
+  if (request.series.length === 0) throw new RunStopped("Nothing to analyse: read a column of weekly rates in Data first.", "input");
+  const say = control.onProgress ?? (() => undefined);
+  say(0, "Reading the rates");
+  const { series, names } = await readAll(deps.workbook, request.series);
+  const seen = new Set<string>();
+  for (const n of names) {
+    if (seen.has(n)) {
+      throw new RunStopped(`Two analysed series are both called “${n}”; their sheets and names would collide. Give one of them another header.`, "input");
+    }
+    seen.add(n);
+  }
+
+  say(READ_SHARE, "Analysing");
+  let reports: Report[];
+  try {
+    reports = await analyseMany(
+      deps.engine,
+      series.map((s, i) => ({ series: s, options: request.series[i].options })),
+      {
+        signal: control.signal,
+        onProgress: (f, sentence) => say(READ_SHARE + (1 - READ_SHARE - WRITE_SHARE) * f, sentence),
+      },
+    );
+  } catch (e) {
+    if (isEngineCancelled(e) || control.signal?.aborted) throw new RunStopped("Cancelled: nothing was written.", "cancelled");
+    if (e instanceof InputError) throw new RunStopped(e.message, "input");
+    throw new RunStopped(`The analysis stopped: ${plainReason(e)}. Nothing was written.`, "failed");
+  }
+  if (control.signal?.aborted) throw new RunStopped("Cancelled: nothing was written.", "cancelled");
+
+  const analysed: AnalysedSeries[] = series.map((s, i) => ({ name: names[i], series: s, report: reports[i] }));
+  const book = await deps.workbook.name();
+  const labels = request.series.map((e) => sourceLabel(e.source)).join("; ");
+  const stamp = stampOf(book ? `${book} › ${labels}` : labels, analysed, (deps.now ?? (() => new Date()))(), deps.version);
+  const sheets = managedSheets(analysed, stamp);
+
+  say(1 - WRITE_SHARE, "Writing Fairlead's sheets and charts");
+  const written = await deps.workbook.write(sheets, request.settings.ledgers, request.write ?? {});
+  const ledgers: Record<string, SheetLedger> = { ...request.settings.ledgers };
+  for (const l of written.ledgers) ledgers[l.sheet] = l;
+  const settings: PaneSettings = {
+    ...request.settings,
+    series: request.series.map((e, i) => ({ ...e, name: names[i] })),
+    ledgers,
+  };
+  await deps.workbook.saveSettings(settings);
+  say(1, "Done");
+  const warnings = analysed.flatMap((a) => a.report.warnings.map((w) => (analysed.length > 1 ? `${a.name}: ${w}` : w)));
+  return { analysed, sheets, written, settings, warnings };
+}

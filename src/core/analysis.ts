@@ -55,6 +55,12 @@ export interface AnalysisOptions {
    * backtest; needs dates. Default: none.
    */
   calendar?: { lunarNewYear?: boolean | Partial<LunarWindow> };
+  /**
+   * The backtest sees only the first k weeks (the choice of "auto" with it). The pane's
+   * refresh keeps its last full run's backtest this way, so a pasted week costs one fit, not a
+   * backtest; k ≥ the series' length means every week. Default: every week.
+   */
+  backtestThrough?: number;
 }
 
 export type ChoiceMetric = "mase" | "mape" | "rmse" | "smape";
@@ -72,6 +78,8 @@ export interface ResolvedOptions {
   decompose: boolean;
   seasonKind: FactorKind | null;
   calendar: { lunarNewYear: LunarWindow | null };
+  /** Weeks the backtest sees when fewer than the series has (options.backtestThrough), else null. */
+  backtestThrough: number | null;
 }
 
 /** Progress and cancellation for the slow part of an analysis (the backtest). */
@@ -145,6 +153,26 @@ export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = 
     decompose: options.decompose ?? false,
     seasonKind: checkKind(options.seasonKind),
     calendar: { lunarNewYear: lunarOption(series, options.calendar?.lunarNewYear) },
+    backtestThrough: throughOption(series, options.backtestThrough),
+  };
+}
+
+function throughOption(series: WeeklySeries, k: number | undefined): number | null {
+  if (k === undefined) return null;
+  if (!Number.isInteger(k) || k < 1) throw new InputError("BAD_OPTION", `The weeks the backtest sees must be a whole number of at least 1; got ${k}.`);
+  return k >= series.values.length ? null : k;
+}
+
+/** The part of the series the backtest sees: all of it, or its first opts.backtestThrough weeks. */
+export function backtestSeries(series: WeeklySeries, opts: ResolvedOptions): WeeklySeries {
+  const k = opts.backtestThrough;
+  if (k === null) return series;
+  const dated = series.dates.length === series.values.length;
+  return {
+    ...series,
+    values: series.values.slice(0, k),
+    dates: dated ? series.dates.slice(0, k) : series.dates,
+    filled: series.filled.slice(0, k),
   };
 }
 
@@ -252,27 +280,36 @@ function runBacktest(
   control: AnalysisControl,
   given: BacktestResult | undefined,
 ): { tables: BacktestTables; chosen: string | null; note: string | null } {
-  const n = series.values.length;
-  const result = given ?? backtest(series.values, backtestOptionsFor(series, opts), getModel, control);
+  const full = series.values.length;
+  const seen = backtestSeries(series, opts);
+  const n = seen.values.length;
+  const result = given ?? backtest(seen.values, backtestOptionsFor(seen, opts), getModel, control);
   if (result.plan.n !== n) {
     throw new Error(`analyse: the backtest given was planned for ${result.plan.n} weeks, the series has ${n}`);
   }
-  const dated = series.dates.length === n && n > 0;
-  const tables = backtestTables(series.values, result, dated ? series.dates : null);
+  const dated = seen.dates.length === n && n > 0;
+  const tables = backtestTables(seen.values, result, dated ? seen.dates : null);
+  if (n < full) {
+    const since = full - n;
+    const through = dated ? `week ending ${isoDate(seen.dates[n - 1])}` : `week ${n}`;
+    const kept = `This backtest is the one of the last full run, through ${through}; the ${since} week${since === 1 ? "" : "s"} since ${since === 1 ? "is" : "are"} not scored yet.`;
+    tables.accuracy = { ...tables.accuracy, notes: [...tables.accuracy.notes, kept] };
+  }
   if (opts.method !== "auto") return { tables, chosen: null, note: null };
   const mode = result.plan.modes[0];
-  const chosen = bestBy(scoreRuns(series.values, result.plan, result.runs), mode, opts.choose, result.plan.windows.length);
+  const chosen = bestBy(scoreRuns(seen.values, result.plan, result.runs), mode, opts.choose, result.plan.windows.length);
   if (chosen === null) throw new InputError("TOO_FEW_POINTS", "None of the methods could be scored in the backtest, so none can be chosen.");
   const label = getModel(chosen).label;
   const note =
     `Chosen by backtest: ${label} had the lowest ${opts.choose.toUpperCase()} averaged over 1–${result.plan.horizon} weeks ahead, ` +
-    `from every week of the last ${result.plan.windows.length * (result.plan.windows[0].last - result.plan.windows[0].first + 1)} weeks (${modePhrase(mode)}).`;
+    `from every week of the last ${result.plan.windows.length * (result.plan.windows[0].last - result.plan.windows[0].first + 1)} weeks` +
+    `${n < full ? ` to ${dated ? `week ending ${isoDate(seen.dates[n - 1])}` : `week ${n}`}` : ""} (${modePhrase(mode)}).`;
   return { tables, chosen, note };
 }
 
 /** What a caller may hand analyse() ready-made. */
 export interface AnalysisGiven {
-  /** The backtest of backtestOptionsFor(series, resolved options), run elsewhere (the engine's pool). */
+  /** The backtest of backtestOptionsFor(backtestSeries(series, resolved), resolved), run elsewhere (the engine's pool). */
   backtest?: BacktestResult;
 }
 

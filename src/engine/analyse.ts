@@ -5,7 +5,7 @@
  * instead of one. The report is the one analyse() gives on one thread, bit for bit, apart from
  * the cost table's seconds.
  */
-import { backtestOptionsFor, needsBacktest, resolveOptions, type AnalysisOptions, type Report } from "../core/analysis";
+import { backtestOptionsFor, backtestSeries, needsBacktest, resolveOptions, type AnalysisOptions, type Report } from "../core/analysis";
 import type { WeeklySeries } from "../core/series/types";
 import type { Engine, ProgressListener, RunOptions } from "./api";
 import { backtestInEngine } from "./backtest";
@@ -19,7 +19,10 @@ export async function analyseInEngine(engine: Engine, series: WeeklySeries, opti
   if (!needsBacktest(resolved)) return engine.run("analyse", { series, options }, run);
   const scaled = (from: number, share: number): ProgressListener | undefined =>
     report ? (f, sentence) => report(from + share * f, sentence) : undefined;
-  const backtest = await backtestInEngine(engine, series.values, backtestOptionsFor(series, resolved), {
+  // The weeks the backtest sees (all, or the first options.backtestThrough): a refresh that keeps
+  // the last full run's backtest asks the pool for the very jobs that run did, and so hits the cache.
+  const seen = backtestSeries(series, resolved);
+  const backtest = await backtestInEngine(engine, seen.values, backtestOptionsFor(seen, resolved), {
     onProgress: scaled(0, BACKTEST_SHARE),
     signal: run.signal,
     cache: run.cache,

@@ -5,12 +5,16 @@
  * ledger and the series list in the workbook. The host is reached only through `PaneWorkbook`
  * (excel/paneWorkbook.ts in Excel; a stand-in in tests), so this module runs anywhere.
  *
- * A refresh is the same run: a series whose cells and options did not change is answered from
- * the engine's cache without fitting anything; the one that gained a week is analysed afresh,
- * so the refreshed sheets are exactly what a colleague's first run on that data gives.
+ * A refresh is the same run with one difference: a series that gained a few weeks keeps the
+ * backtest of its last full run (options.backtestThrough, saved with the series), so a pasted
+ * week costs the chosen method's fit instead of a whole backtest; the backtest and the choice
+ * of "auto" are re-scored on Run, or by a refresh once RESCORE_AFTER_WEEKS weeks have gone
+ * unscored. What a refresh computes depends only on the cells and the saved settings, so a
+ * colleague's refresh of the same book gives the same numbers; a series whose cells did not
+ * change is answered from the engine's cache without fitting anything.
  */
 import type { Report } from "../core/analysis";
-import { resolveOptions } from "../core/analysis";
+import { needsBacktest, resolveOptions, type AnalysisOptions } from "../core/analysis";
 import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../core/present/sheets";
 import { stampOf } from "../core/present/stamp";
 import { InputError } from "../core/series/errors";
@@ -49,7 +53,32 @@ export interface RunDeps {
 export interface RunRequest {
   series: SavedSeries[];
   settings: PaneSettings;
+  /** "run": everything afresh (the Run button); "refresh": after new weeks (default "run"). */
+  kind?: "run" | "refresh";
   write?: WriteOptions;
+}
+
+/** Weeks a refresh may leave unscored before it runs the backtest again. */
+export const RESCORE_AFTER_WEEKS = 4;
+
+function withoutThrough(options: AnalysisOptions): AnalysisOptions {
+  const { backtestThrough: _dropped, ...rest } = options;
+  return rest;
+}
+
+/**
+ * The options a series is analysed with in this run, and the ones saved for the next refresh
+ * (which remember how many weeks the backtest saw).
+ */
+export function runOptions(entry: SavedSeries, series: WeeklySeries, kind: "run" | "refresh"): { use: AnalysisOptions; save: AnalysisOptions } {
+  const weeks = series.values.length;
+  const base = withoutThrough(entry.options);
+  const through = entry.options.backtestThrough;
+  const keep = kind === "refresh" && through !== undefined && through < weeks && weeks - through <= RESCORE_AFTER_WEEKS;
+  const use = keep ? { ...base, backtestThrough: through } : base;
+  // Options were checked against this series when it was read (readAll).
+  const save = needsBacktest(resolveOptions(series, base)) ? { ...base, backtestThrough: keep ? (through as number) : weeks } : base;
+  return { use, save };
 }
 
 export interface RunOutcome {
@@ -120,11 +149,13 @@ export async function runAnalysis(request: RunRequest, deps: RunDeps, control: R
   }
 
   say(READ_SHARE, "Analysing");
+  const kind = request.kind ?? "run";
+  const plans = request.series.map((e, i) => runOptions(e, series[i], kind));
   let reports: Report[];
   try {
     reports = await analyseMany(
       deps.engine,
-      series.map((s, i) => ({ series: s, options: request.series[i].options })),
+      series.map((s, i) => ({ series: s, options: plans[i].use })),
       {
         signal: control.signal,
         onProgress: (f, sentence) => say(READ_SHARE + (1 - READ_SHARE - WRITE_SHARE) * f, sentence),
@@ -149,7 +180,7 @@ export async function runAnalysis(request: RunRequest, deps: RunDeps, control: R
   for (const l of written.ledgers) ledgers[l.sheet] = l;
   const settings: PaneSettings = {
     ...request.settings,
-    series: request.series.map((e, i) => ({ ...e, name: names[i] })),
+    series: request.series.map((e, i) => ({ ...e, name: names[i], options: plans[i].save })),
     ledgers,
   };
   await deps.workbook.saveSettings(settings);

@@ -324,7 +324,7 @@ async function run(series: SavedSeries[], opts: { refreshed: boolean; adopt?: st
   setRunning(true, opts.refreshed ? "Refreshing" : "Running");
   try {
     const outcome = await runAnalysis(
-      { series, settings: state.settings, write: { activate: !opts.refreshed, adopt: opts.adopt } },
+      { series, settings: state.settings, kind: opts.refreshed ? "refresh" : "run", write: { activate: !opts.refreshed, adopt: opts.adopt } },
       { workbook: excelWorkbook, engine: functionsEngine(), version },
       { onProgress: progress, signal: controller.signal },
     );

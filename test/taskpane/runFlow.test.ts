@@ -128,6 +128,39 @@ describe("a pane run", () => {
     expect(grown.analysed[0].report.tables.outlook).toEqual(analyse(laneSeries(151), OPTIONS).tables.outlook);
   });
 
+  it("keeps the last full run's backtest on a refresh after new weeks, re-scoring once four weeks go unscored", async () => {
+    const AUTO = { method: "auto", horizon: 6, levels: [80, 95], checks: false, backtest: { methods: ["lastweek", "lastyear", "drift"], testWeeks: 20, horizon: 4, modes: ["every" as const] } };
+    const book = new StandInBook(laneBlocks(150));
+    const deps = { workbook: book, engine, version: "0.1.0", now: () => NOW };
+    const first = await runAnalysis({ series: [entry(AUTO)], settings: emptySettings() }, deps);
+    // Saved with the weeks its backtest saw.
+    expect(first.settings.series[0].options).toEqual({ ...AUTO, backtestThrough: 150 });
+    const started = engine.stats().started;
+
+    book.blocks = laneBlocks(151);
+    const one = await runAnalysis({ series: first.settings.series, settings: first.settings, kind: "refresh" }, deps);
+    // Only the final fit ran: the backtest's jobs (one per method) came from the cache.
+    expect(engine.stats().started).toBe(started + 1);
+    expect(one.analysed[0].report.tables.backtest!.rows).toEqual(first.analysed[0].report.tables.backtest!.rows);
+    expect(one.analysed[0].report.model.method).toBe(first.analysed[0].report.model.method);
+    expect(one.analysed[0].report.lastWeek).not.toBe(first.analysed[0].report.lastWeek);
+    expect(one.settings.series[0].options.backtestThrough).toBe(150);
+    // What a colleague's refresh of the same book computes, from the cells and the saved options alone.
+    expect(one.analysed[0].report.tables.outlook).toEqual(analyse(laneSeries(151), { ...AUTO, backtestThrough: 150 }).tables.outlook);
+
+    book.blocks = laneBlocks(155);
+    const five = await runAnalysis({ series: one.settings.series, settings: one.settings, kind: "refresh" }, deps);
+    expect(five.settings.series[0].options.backtestThrough).toBe(155);
+    expect(five.analysed[0].report.options.backtestThrough).toBeNull();
+    expect(five.analysed[0].report.tables.backtest!.rows).toEqual(analyse(laneSeries(155), AUTO).tables.backtest!.rows);
+
+    // Run (not a refresh) always re-scores.
+    book.blocks = laneBlocks(156);
+    const run = await runAnalysis({ series: five.settings.series, settings: five.settings }, deps);
+    expect(run.analysed[0].report.options.backtestThrough).toBeNull();
+    expect(run.settings.series[0].options.backtestThrough).toBe(156);
+  });
+
   it("stops on a bad cell with the intake's sentence and the sheet cell, writing nothing", async () => {
     const blocks = laneBlocks(120);
     blocks.values[50] = ["n/a"];

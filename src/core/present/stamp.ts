@@ -42,7 +42,8 @@ export function optionsPhrase(o: ResolvedOptions): string {
     const windows = b.windows ?? 1;
     parts.push(
       `backtest over the last ${(b.testWeeks ?? DEFAULT_TEST_WEEKS) * windows} weeks, ${b.horizon ?? DEFAULT_BACKTEST_HORIZON} ahead, ${modes}` +
-        (o.method === "auto" ? `, chosen by ${o.choose.toUpperCase()}` : ""),
+        (o.method === "auto" ? `, chosen by ${o.choose.toUpperCase()}` : "") +
+        (o.backtestThrough !== null ? `, kept from the last full run (its first ${o.backtestThrough} weeks)` : ""),
     );
   }
   return parts.join("; ");

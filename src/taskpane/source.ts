@@ -7,7 +7,8 @@
  *
  * Pure: no Office calls and no DOM, so the filtering behind the change watch is unit-tested.
  */
-import { excelErrorOf, isBlankCell, looksLikeMalformedNumber, looksLikePercent, parseNumberText } from "../core/series/cells";
+import { looksLikeMalformedNumber } from "../core/series/cells";
+import { isLabelText } from "../core/series/intake";
 import { readDateCell } from "../core/series/excelDate";
 import { cellName, columnIndex, columnLetters } from "../core/present/a1";
 import type { SelectionBlocks } from "./excel/readSelection";
@@ -33,19 +34,8 @@ export interface Area {
   right: number;
 }
 
-/**
- * Text that names a column rather than holding a rate, judged as the core intake judges a
- * header: not blank, not an error value, not a number or percentage written as text.
- */
-export function isLabelText(v: unknown): v is string {
-  return (
-    typeof v === "string" &&
-    !isBlankCell(v) &&
-    excelErrorOf(v) === undefined &&
-    parseNumberText(v) === undefined &&
-    !looksLikePercent(v)
-  );
-}
+/** Text that names a column rather than holding a rate, judged as the core intake judges a header. */
+export { isLabelText };
 
 /** "'Lane book'" → "Lane book", "'Desk''s rates'" → "Desk's rates", "Rates" → "Rates". */
 function unquoteSheet(text: string): string {

@@ -159,7 +159,7 @@ function locator(unit: "row" | "column", o: IntakeOptions): Locator {
 }
 
 /** Text that names a column, not a rate: not blank, not an error, not a number or percentage. */
-function isLabelText(v: unknown): v is string {
+export function isLabelText(v: unknown): v is string {
   return (
     typeof v === "string" &&
     !isBlankCell(v) &&

@@ -6,6 +6,7 @@
  * mock object made is synced by the context (items sit in arrays, which the mock does not walk).
  */
 import { OfficeMockObject } from "office-addin-mock";
+import { mockCollection } from "./mockCollection";
 
 import { analyse } from "../../../src/core/analysis";
 import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../../../src/core/present/sheets";
@@ -67,19 +68,7 @@ class Book {
 
   /** A collection whose load("items/a, items/b") loads items and a, b on each item. */
   collection(items: OfficeMockObject[], extra: Data = {}): Data {
-    return {
-      items,
-      ...extra,
-      load(this: OfficeMockObject, what: string) {
-        OfficeMockObject.prototype.load.call(this, "items");
-        const props = what
-          .split(",")
-          .map((p) => p.trim().replace(/^items\//, ""))
-          .join(",");
-        for (const item of items) item.load(props);
-        return this;
-      },
-    };
+    return mockCollection(items, extra);
   }
 
   series(name: string, extra: Data = {}): OfficeMockObject {

@@ -6,6 +6,7 @@
  * then the named properties on every item), which the mock itself does not model.
  */
 import { OfficeMockObject } from "office-addin-mock";
+import { mockCollection } from "./mockCollection";
 
 import { canReadSeriesSources, extendSpillCharts } from "../../../src/taskpane/excel/spillCharts";
 import { parseAddress } from "../../../src/taskpane/spillAddress";
@@ -53,19 +54,7 @@ class Book {
   }
 
   collection(items: OfficeMockObject[], onLoad?: () => void): Data {
-    return {
-      items,
-      load(this: OfficeMockObject, what: string) {
-        onLoad?.();
-        OfficeMockObject.prototype.load.call(this, "items");
-        const props = what
-          .split(",")
-          .map((p) => p.trim().replace(/^items\//, ""))
-          .join(",");
-        for (const item of items) item.load(props);
-        return this;
-      },
-    };
+    return mockCollection(items, {}, onLoad);
   }
 
   seriesMock(chart: string, d: SeriesDef): OfficeMockObject {

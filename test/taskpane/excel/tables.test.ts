@@ -6,41 +6,15 @@
  */
 import { OfficeMockObject } from "office-addin-mock";
 
+import { childCollection as collection, wireItems, type Data, type Mock } from "./mockCollection";
 import type { ContextLike } from "../../../src/taskpane/excel/readSelection";
 import { classifyColumns, listTables, looksLikeRates } from "../../../src/taskpane/excel/tables";
 
 type Cells = unknown[][];
-type Data = Record<string, unknown>;
-type Mock = OfficeMockObject & Record<string, unknown>;
 
 const DATE_FMT = "dd/mm/yyyy";
 // Fridays from 2025-01-03 (Excel serial 45660).
 const serials = [45660, 45667, 45674, 45681];
-
-/** Data for a collection of `children`, stored under item0, item1, … */
-function collection(children: Data[]): Data {
-  const data: Data = {
-    load(this: Mock, props: string) {
-      const own: string[] = [];
-      for (const p of props.split(",").map((s) => s.trim())) {
-        if (p.startsWith("items/")) {
-          children.forEach((_, i) => (this[`item${i}`] as OfficeMockObject).load(p.slice("items/".length)));
-          own.push("items");
-        } else own.push(p);
-      }
-      OfficeMockObject.prototype.load.call(this, own.join(","));
-      return this;
-    },
-  };
-  children.forEach((c, i) => (data[`item${i}`] = c));
-  return data;
-}
-
-/** After the mock is built: gives a collection its `items`, readable only after load and sync. */
-function wireItems(mock: Mock, count: number): void {
-  const items = Array.from({ length: count }, (_, i) => mock[`item${i}`]);
-  (mock as unknown as { setValue(name: string, value: unknown): void }).setValue("items", items);
-}
 
 function tableData(name: string, sheet: string, columns: string[], values: Cells, numberFormat: Cells): Data {
   return {

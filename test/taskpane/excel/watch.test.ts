@@ -5,11 +5,10 @@
  */
 import { OfficeMockObject } from "office-addin-mock";
 
+import { childCollection as collection, wireItems, type Data, type Mock } from "./mockCollection";
 import { watchSources } from "../../../src/taskpane/excel/watch";
 import type { DataSource } from "../../../src/taskpane/source";
 
-type Data = Record<string, unknown>;
-type Mock = OfficeMockObject & Record<string, unknown>;
 type Handler = (args: unknown) => Promise<void>;
 
 interface Registration {
@@ -38,29 +37,6 @@ function event(target: string): Data {
   };
 }
 
-/** A collection of `children` stored as item0, item1, …; load("items/…") loads each child. */
-function collection(children: Data[]): Data {
-  const data: Data = {
-    load(this: Mock, props: string) {
-      const own: string[] = [];
-      for (const p of props.split(",").map((s) => s.trim())) {
-        if (p.startsWith("items/")) {
-          children.forEach((_, i) => (this[`item${i}`] as OfficeMockObject).load(p.slice("items/".length)));
-          own.push("items");
-        } else own.push(p);
-      }
-      OfficeMockObject.prototype.load.call(this, own.join(","));
-      return this;
-    },
-  };
-  children.forEach((c, i) => (data[`item${i}`] = c));
-  return data;
-}
-
-function wireItems(mock: Mock, count: number): void {
-  const items = Array.from({ length: count }, (_, i) => mock[`item${i}`]);
-  (mock as unknown as { setValue(name: string, value: unknown): void }).setValue("items", items);
-}
 
 const tableColumns = ["Week ending", "Notes", LANE, OTHER];
 

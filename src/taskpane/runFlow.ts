@@ -185,6 +185,9 @@ export async function runAnalysis(request: RunRequest, deps: RunDeps, control: R
   };
   await deps.workbook.saveSettings(settings);
   say(1, "Done");
-  const warnings = analysed.flatMap((a) => a.report.warnings.map((w) => (analysed.length > 1 ? `${a.name}: ${w}` : w)));
+  // The intake's notes are the Data section's (and the Data table's); these are the run's own.
+  const warnings = analysed.flatMap((a) =>
+    a.report.warnings.filter((w) => !a.series.warnings.includes(w)).map((w) => (analysed.length > 1 ? `${a.name}: ${w}` : w)),
+  );
   return { analysed, sheets, written, settings, warnings };
 }

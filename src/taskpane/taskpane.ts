@@ -123,7 +123,7 @@ function syncForm(): void {
   const f = readForm();
   const method = METHOD_CHOICES.find((m) => m.code === f.method)?.label ?? f.method;
   setText("outlook-summary", `${method}; ${f.horizon} weeks; ${f.coverage}%${f.lunarNewYear ? "; lunar new year" : ""}`);
-  setText("season-summary", f.checks ? `${f.seasonKind === "auto" ? "factors" : f.seasonKind}${f.decompose ? "; STL by week" : ""}` : "off (needs the checks)");
+  setText("season-summary", f.checks ? `factors by ISO week${f.seasonKind === "auto" ? "" : `, ${f.seasonKind}`}${f.decompose ? "; STL by week" : ""}` : "off (needs the checks)");
   setText("checks-summary", f.checks ? "on" : "off");
   const bt = f.backtest || f.method === "auto";
   setText("backtest-summary", bt ? `${f.testWeeks} weeks × ${f.windows}, ${f.backtestHorizon} ahead, ${byId<HTMLSelectElement>("refit").selectedOptions[0]?.textContent?.toLowerCase() ?? ""}` : "off");

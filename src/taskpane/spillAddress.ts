@@ -4,6 +4,8 @@
  * intersecting rectangles, and stretching a one-column source to a spill's new last row.
  * Pure: no Office calls.
  */
+import { columnIndex as a1ColumnIndex, columnLetters as a1ColumnLetters } from "../core/present/a1";
+import { LAST_COLUMN, LAST_ROW } from "./source";
 
 /** A rectangle of cells, 0-based and inclusive. `sheet` is null when the address has none. */
 export interface CellRect {
@@ -14,25 +16,19 @@ export interface CellRect {
   lastCol: number;
 }
 
-/** The last row and column of a worksheet (1,048,576 rows × 16,384 columns), 0-based. */
-export const LAST_ROW = 1_048_575;
-export const LAST_COL = 16_383;
+/** The sheet's limits, as the sources use them (source.ts). */
+export { LAST_ROW, LAST_COLUMN as LAST_COL } from "./source";
 
 const CELL = /^\$?([A-Za-z]{1,3})\$?(\d{1,7})$/;
 
-/** "A" → 0, "Z" → 25, "AA" → 26; null for letters past column XFD. */
+/** "A" → 0, "Z" → 25, "AA" → 26 (core/present/a1.ts); null for letters past column XFD. */
 export function columnIndex(letters: string): number | null {
-  let n = 0;
-  for (const ch of letters.toUpperCase()) n = n * 26 + (ch.charCodeAt(0) - 64);
-  return n >= 1 && n - 1 <= LAST_COL ? n - 1 : null;
+  const n = a1ColumnIndex(letters);
+  return n >= 0 && n <= LAST_COLUMN ? n : null;
 }
 
-/** 0 → "A", 26 → "AA". */
-export function columnLetters(index: number): string {
-  let s = "";
-  for (let n = index + 1; n > 0; n = Math.floor((n - 1) / 26)) s = String.fromCharCode(65 + ((n - 1) % 26)) + s;
-  return s;
-}
+/** 0 → "A", 26 → "AA" (core/present/a1.ts). */
+export const columnLetters = a1ColumnLetters;
 
 function parseCell(text: string): { row: number; col: number } | null {
   const m = CELL.exec(text);
@@ -151,6 +147,6 @@ export function followSpill(source: CellRect, spill: CellRect): CellRect | null 
   if (!column && !row) return null;
   const reach: CellRect = column
     ? { ...source, lastRow: LAST_ROW }
-    : { ...source, lastCol: LAST_COL };
+    : { ...source, lastCol: LAST_COLUMN };
   return intersect(reach, spill);
 }

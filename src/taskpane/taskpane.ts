@@ -8,7 +8,7 @@ import type { Cell } from "../core/report";
 import { functionsEngine } from "../functions/engine";
 import { version } from "../../package.json";
 import { describeFailure, summariseBlocks, type DataView } from "./dataSummary";
-import { currentSelection, excelTables, loadPaneSettings, onBookCalculated, whenExcelReady, extendUserCharts } from "./excel/host";
+import { currentSelection, excelTables, sourceCells, loadPaneSettings, onBookCalculated, whenExcelReady, extendUserCharts } from "./excel/host";
 import { excelWorkbook } from "./excel/paneWorkbook";
 import type { SelectionBlocks } from "./excel/readSelection";
 import type { TableInfo } from "./excel/tables";
@@ -19,7 +19,6 @@ import { RefreshScheduler } from "./refreshScheduler";
 import { runAnalysis, RunStopped, type RunOutcome } from "./runFlow";
 import { emptySettings, withoutSeries, withSeries, type PaneSettings, type SavedSeries } from "./settings";
 import { sourceFromSelection, sourceLabel, sameSource, type DataSource } from "./source";
-import { readSource } from "./excel/readSource";
 
 // ---- page helpers ----------------------------------------------------------------------
 
@@ -239,7 +238,7 @@ async function readData(): Promise<{ source: DataSource; name: string } | null> 
       const chosen = tableChosen();
       if (!chosen) throw new Error("no table");
       source = chosen;
-      const read = await Excel.run((c) => readSource(c, chosen));
+      const read = await sourceCells(chosen);
       blocks = read;
       name = read.name;
     } else {
@@ -248,7 +247,7 @@ async function readData(): Promise<{ source: DataSource; name: string } | null> 
       source = sourceFromSelection(selected);
       // What a run reads: the same columns from the same top row down to the last filled cell,
       // so the summary shows exactly the weeks Run will analyse (and a refresh will extend).
-      const read = await Excel.run((c) => readSource(c, source));
+      const read = await sourceCells(source);
       blocks = read;
       name = read.name;
     }

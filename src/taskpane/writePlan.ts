@@ -2,7 +2,7 @@
  * What the pane puts into the cells of a managed sheet, worked out before any host call: the
  * values as Excel will hold them (ISO dates become date serials, text stays text), one number
  * format per cell, and the font and fill of each styled range. The batch runner gives the same
- * sheets the same look (src/batch/writeBook.ts); this is the Office.js side of that promise.
+ * sheets the same look (src/batch/writeBook.ts); excel/writeSheets.ts hands this plan to the host.
  * Pure data: no Office, no DOM.
  */
 import type { Cell } from "../core/report";

@@ -8,6 +8,8 @@ import { readSelection, type SelectionBlocks } from "./readSelection";
 import { extendSpillCharts, type SpillChartChange } from "./spillCharts";
 import { listTables, type TableInfo } from "./tables";
 import type { PaneSettings } from "../settings";
+import type { DataSource } from "../source";
+import { readSource, type SourceBlocks } from "./readSource";
 
 /** Resolves true once Office is ready in Excel, false in any other host (or a plain browser tab). */
 export function whenExcelReady(): Promise<boolean> {
@@ -18,6 +20,11 @@ export function whenExcelReady(): Promise<boolean> {
 /** Reads the current selection in a batch of its own. */
 export function currentSelection(): Promise<SelectionBlocks> {
   return Excel.run((context) => readSelection(context));
+}
+
+/** Reads a saved or chosen source (a table's columns, or a sheet column to its last used cell). */
+export function sourceCells(source: DataSource): Promise<SourceBlocks> {
+  return Excel.run((context) => readSource(context, source));
 }
 
 export function excelTables(): Promise<TableInfo[]> {

@@ -19,6 +19,7 @@ const FORMATS: Partial<Record<CellStyle, string>> = {
   date: "yyyy-mm-dd",
   rate: "#,##0.0",
   ratio: "0.0000",
+  share: "0.0",
   count: "0",
 };
 

@@ -9,6 +9,7 @@
  * workbook's settings): a backtest sheet of 700 × 12 cells costs about 45 kB. Two different
  * values share a fingerprint with odds of 1 in 2^32 per edited cell.
  */
+import { fnv1a } from "../core/math/fnv1a";
 
 /** Stored per managed sheet (as JSON in the workbook settings). */
 export interface SheetLedger {
@@ -32,15 +33,7 @@ export function cellKey(v: unknown): string {
   return `s:${String(v)}`;
 }
 
-/** 32-bit FNV-1a (Fowler, Noll, Vo) over the UTF-16 code units of `text` (bytes, for ASCII). */
-export function fnv1a(text: string): number {
-  let h = 0x811c9dc5;
-  for (let i = 0; i < text.length; i++) {
-    h ^= text.charCodeAt(i);
-    h = Math.imul(h, 0x01000193) >>> 0;
-  }
-  return h;
-}
+export { fnv1a };
 
 /** The fingerprint of one cell: FNV-1a of its key; the empty cell is 0 (and nothing else is). */
 export function fingerprint(v: unknown): number {

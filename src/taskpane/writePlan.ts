@@ -38,6 +38,7 @@ export const NUMBER_FORMATS: Partial<Record<CellStyle, string>> = {
   date: "yyyy-mm-dd",
   rate: "#,##0.0",
   ratio: "0.0000",
+  share: "0.0",
   count: "0",
 };
 

@@ -56,10 +56,13 @@ export function asOfWeek(stamp: StampInput): string | null {
   return last;
 }
 
-/** The stamp as label/value rows; `what` names the sheet's contents ("Outlook"). */
-export function stampRows(stamp: StampInput, what: string): Cell[][] {
+/** What the mark's neighbour says of a managed sheet unless told otherwise. */
+export const MANAGED_LEAD = "Fairlead rewrites this sheet on every run: type nothing here, link to it instead.";
+
+/** The stamp as label/value rows; `what` names the sheet's contents ("Outlook"), `lead` how the sheet is kept. */
+export function stampRows(stamp: StampInput, what: string, lead: string = MANAGED_LEAD): Cell[][] {
   const rows: Cell[][] = [
-    [MANAGED_MARK, `${what}. Fairlead rewrites this sheet on every run: type nothing here, link to it instead.`],
+    [MANAGED_MARK, `${what}. ${lead}`],
     ["As of week ending", asOfWeek(stamp)],
     ["Data", stamp.source],
   ];

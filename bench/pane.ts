@@ -49,6 +49,9 @@ async function main(): Promise<void> {
       sheets: sheets.map((s) => ({ name: s.name, rows: s.cells.length, cols: s.width, charts: [], created: false })),
       ledgers: sheets.map((s) => ledgerOf(s.name, writePlan(s).values)),
     }),
+    // A book without a forecast log: a run reads nothing more.
+    readLog: async () => null,
+    appendLog: async () => ({ sheet: "Fairlead Log", added: 0, firstRow: 0, lastRow: 0, created: false }),
     saveSettings: async () => undefined,
   };
   const engine = createEngine(new NodeTransport());

@@ -2,6 +2,9 @@
 /**
  * fairlead — the command-line runner (package.json "bin"). Verbs:
  *   run <book.xlsx>       analyse the book's rate columns and write the managed sheets
+ *   publish <book.xlsx>   the same, plus the published snapshot (plain values and charts), the
+ *                         run's forecasts appended to the book's Fairlead Log, and the track
+ *                         record rewritten from the whole log and the rates just read
  *   forecast              forecasts and intervals of one column, as a table or JSON
  * Exit codes: 0 done, 2 bad input (one line on stderr saying why), 1 internal failure.
  */
@@ -9,8 +12,9 @@ import type { AnalysisOptions, ChoiceMetric, Report } from "../core/analysis";
 import type { RefitMode } from "../core/evaluate/backtest";
 import type { BacktestOptions } from "../core/evaluate/plan";
 import { runDefaults } from "../core/present/defaults";
+import { PUBLISH_PARTS, parseParts, type PublishPart } from "../core/present/published";
 import { CAUTION } from "../core/present/stamp";
-import { analyseInEngine, createEngine } from "../engine";
+import { analyseInEngine, createEngine, type Transport } from "../engine";
 import { NodeTransport } from "../engine/node";
 import { flag, has, levelsFlag, list, parseArgs, wholeFlag, type FlagSpec, type Parsed } from "./args";
 import { EXIT_BAD_INPUT, EXIT_INTERNAL, EXIT_OK, UsageError, isBadInput } from "./errors";
@@ -47,6 +51,12 @@ const RUN_FLAGS: Record<string, FlagSpec> = {
   "no-checks": { value: false, help: "skip the stationarity, seasonality and nonlinearity checks" },
 };
 
+const PUBLISH_FLAGS: Record<string, FlagSpec> = {
+  ...RUN_FLAGS,
+  parts: { value: true, help: `what the published sheet shows: any of ${PUBLISH_PARTS.map((p) => p.part).join(",")} (default: all four)` },
+  json: { value: false, help: "print JSON on stdout instead of the summary (the book is written all the same)" },
+};
+
 const FORECAST_FLAGS: Record<string, FlagSpec> = {
   ...COMMON,
   csv: { value: true, help: "a CSV file with a header line (instead of an .xlsx book)" },
@@ -58,11 +68,38 @@ const USAGE = `fairlead ${fairleadVersion()} — weekly freight-rate outlooks fr
   fairlead run <book.xlsx> [--sheet S] [--table T] [--column C …] [--dates D] [--horizon H]
                [--method M] [--methods a,b] [--backtest off|weeks=52,ahead=4,refit=every]
                [--coverage 80,95] [--out out.xlsx | --into other.xlsx | --in-place] [--json]
+  fairlead publish <book.xlsx> [the options of run] [--parts outlook,season,checks,backtest]
+               also writes Fairlead Published (plain values and charts for readers without
+               the add-in), adds the run's forecasts to Fairlead Log (rows already there stay
+               as they are) and rewrites Fairlead Track Record from the log and the rates
   fairlead forecast (--csv file.csv | <book.xlsx>) --column C [--dates D] [--horizon H]
                [--method M] [--coverage 80,95] [--json]
+  fairlead help <verb>   every option of a verb
 
 ${CAUTION}
 `;
+
+/** The help of one verb (`fairlead help publish`): every option it takes, with what it does. */
+function verbHelp(verb: string): string {
+  const spec = verb === "run" ? RUN_FLAGS : verb === "publish" ? PUBLISH_FLAGS : verb === "forecast" ? FORECAST_FLAGS : null;
+  if (!spec) throw new UsageError(`fairlead has no verb "${verb}"; use run, publish or forecast.`);
+  const width = Math.max(...Object.keys(spec).map((k) => k.length + (spec[k].value ? 6 : 0)));
+  const lines = Object.entries(spec).map(([k, f]) => `  --${`${k}${f.value ? " VALUE" : ""}`.padEnd(width)}  ${f.help}`);
+  return `fairlead ${verb} — options:\n${lines.join("\n")}\n`;
+}
+
+/**
+ * What the command line runs with: tests give an inline engine, a fixed time and their own
+ * output (the progress bar still goes to the process's stderr unless --quiet).
+ */
+export interface CliContext {
+  /** How the engine runs its jobs (default: worker threads). */
+  transport?: Transport;
+  /** The run's time (default: now). */
+  now?: Date;
+  stdout?: (text: string) => void;
+  stderr?: (text: string) => void;
+}
 
 function choice(p: Parsed): ChoiceMetric | undefined {
   const c = flag(p, "choose");
@@ -125,11 +162,24 @@ function analysisOptions(p: Parsed, base: AnalysisOptions): AnalysisOptions {
   return o;
 }
 
-async function runVerb(argv: string[]): Promise<number> {
-  const p = parseArgs(argv, RUN_FLAGS, "run");
-  if (p.positional.length !== 1) throw new UsageError(`run takes one book: fairlead run <book.xlsx> [options]; got ${p.positional.length === 0 ? "none" : p.positional.join(" ")}.`);
+function partsFlag(p: Parsed): PublishPart[] {
+  const v = flag(p, "parts");
+  if (v === undefined) return PUBLISH_PARTS.map((x) => x.part);
+  try {
+    return parseParts(v);
+  } catch (e) {
+    throw new UsageError(`--parts: ${e instanceof Error ? e.message : String(e)}`);
+  }
+}
+
+/** `run`, and `publish`, which is a run that also publishes (one path: runBook). */
+async function runVerb(verb: "run" | "publish", argv: string[], ctx: CliContext): Promise<number> {
+  const publishing = verb === "publish";
+  const p = parseArgs(argv, publishing ? PUBLISH_FLAGS : RUN_FLAGS, verb);
+  if (p.positional.length !== 1) throw new UsageError(`${verb} takes one book: fairlead ${verb} <book.xlsx> [options]; got ${p.positional.length === 0 ? "none" : p.positional.join(" ")}.`);
   const json = has(p, "json");
   const options = analysisOptions(p, runDefaults());
+  const parts = publishing ? partsFlag(p) : undefined;
   const progress = progressBar(process.stderr, !has(p, "quiet"));
   const result = await runBook(
     {
@@ -144,16 +194,21 @@ async function runVerb(argv: string[]): Promise<number> {
       inPlace: has(p, "in-place"),
       charts: !has(p, "no-charts"),
       workers: wholeFlag(p, "workers", 1, 64),
+      transport: ctx.transport,
+      now: ctx.now,
+      ...(parts ? { publish: { parts } } : {}),
     },
     progress,
-    !json || flag(p, "out") !== undefined || has(p, "in-place") || flag(p, "into") !== undefined,
+    publishing || !json || flag(p, "out") !== undefined || has(p, "in-place") || flag(p, "into") !== undefined,
   );
-  if (json) process.stdout.write(jsonText(runJson(fairleadVersion(), result.stamp.source, result.analysed, has(p, "timing"), result.seconds)));
-  else process.stdout.write(summaryText(result.stamp.source, result.analysed, result.written, result.seconds, result.warnings));
+  const write = ctx.stdout ?? ((t: string) => void process.stdout.write(t));
+  if (json) write(jsonText(runJson(fairleadVersion(), result.stamp.source, result.analysed, has(p, "timing"), result.seconds, result.publish)));
+  else write(summaryText(result.stamp.source, result.analysed, result.written, result.seconds, result.warnings, result.publish));
   return EXIT_OK;
 }
 
-async function forecastVerb(argv: string[]): Promise<number> {
+async function forecastVerb(argv: string[], ctx: CliContext): Promise<number> {
+  const stdout = ctx.stdout ?? ((t: string) => void process.stdout.write(t));
   const p = parseArgs(argv, FORECAST_FLAGS, "forecast");
   const started = Date.now();
   const csv = flag(p, "csv");
@@ -168,7 +223,7 @@ async function forecastVerb(argv: string[]): Promise<number> {
   // A forecast needs no checks; a backtest only when the method is chosen by one.
   const options = analysisOptions(p, { ...runDefaults(), checks: false });
   const progress = progressBar(process.stderr, !has(p, "quiet") && options.method === "auto");
-  const engine = createEngine(new NodeTransport(), { size: wholeFlag(p, "workers", 1, 64) });
+  const engine = createEngine(ctx.transport ?? new NodeTransport(), { size: wholeFlag(p, "workers", 1, 64) });
   let report: Report;
   try {
     report = await analyseInEngine(engine, series[0], options, { onProgress: (f, s) => progress.update(f, s) });
@@ -179,7 +234,7 @@ async function forecastVerb(argv: string[]): Promise<number> {
   const seconds = (Date.now() - started) / 1000;
   const out = forecastJson(report, has(p, "timing") ? seconds : null);
   if (has(p, "json")) {
-    process.stdout.write(jsonText(out));
+    stdout(jsonText(out));
     return EXIT_OK;
   }
   const levels = out.levels;
@@ -201,31 +256,33 @@ async function forecastVerb(argv: string[]): Promise<number> {
   for (const w of shown) lines.push(w);
   if (out.warnings.length > shown.length) { const k = out.warnings.length - shown.length; lines.push(`${k} note${k === 1 ? "" : "s"} on the fitted model: see --json.`); }
   lines.push(CAUTION);
-  process.stdout.write(`${lines.join("\n")}\n`);
+  stdout(`${lines.join("\n")}\n`);
   return EXIT_OK;
 }
 
-export async function main(argv: string[]): Promise<number> {
+export async function main(argv: string[], ctx: CliContext = {}): Promise<number> {
   const [verb, ...rest] = argv;
+  const stdout = ctx.stdout ?? ((t: string) => void process.stdout.write(t));
+  const stderr = ctx.stderr ?? ((t: string) => void process.stderr.write(t));
   try {
-    if (verb === "run") return await runVerb(rest);
-    if (verb === "forecast") return await forecastVerb(rest);
+    if (verb === "run" || verb === "publish") return await runVerb(verb, rest, ctx);
+    if (verb === "forecast") return await forecastVerb(rest, ctx);
     if (verb === undefined || verb === "help" || verb === "--help" || verb === "-h") {
-      process.stdout.write(USAGE);
+      stdout(verb === "help" && rest.length > 0 ? verbHelp(rest[0]) : USAGE);
       return verb === undefined ? EXIT_BAD_INPUT : EXIT_OK;
     }
     if (verb === "--version") {
-      process.stdout.write(`${fairleadVersion()}\n`);
+      stdout(`${fairleadVersion()}\n`);
       return EXIT_OK;
     }
-    throw new UsageError(`fairlead has no verb "${verb}"; use run or forecast (fairlead help lists their options).`);
+    throw new UsageError(`fairlead has no verb "${verb}"; use run, publish or forecast (fairlead help lists their options).`);
   } catch (e) {
     if (isBadInput(e)) {
-      process.stderr.write(`fairlead: ${e.message}\n`);
+      stderr(`fairlead: ${e.message}\n`);
       return EXIT_BAD_INPUT;
     }
     const why = e instanceof Error ? (e.stack ?? e.message) : String(e);
-    process.stderr.write(`fairlead: internal error, please report it with the command you ran:\n${why}\n`);
+    stderr(`fairlead: internal error, please report it with the command you ran:\n${why}\n`);
     return EXIT_INTERNAL;
   }
 }

@@ -1,11 +1,14 @@
 /**
  * JSON for scripts: the forecast object of DESIGN.md and the whole report. Identical inputs give
  * byte-identical text: keys in a fixed order, no run time, and the tables' varying columns
- * (timings, see ReportTable.varying) left out unless timing is asked for.
+ * (timings, see ReportTable.varying) left out unless timing is asked for. The "publish" object
+ * of `publish --json` says when it was published, and what it found in the book's log.
  */
 import type { Report } from "../core/analysis";
 import type { Cell, ReportTable } from "../core/report";
 import type { AnalysedSeries } from "../core/present/sheets";
+import { LOG_SHEET } from "../core/record/log";
+import type { PublishOutcome } from "./publish";
 
 function levelKey(l: number): string {
   return String(Number(l.toFixed(4)));
@@ -61,8 +64,8 @@ export function steadyTable(t: ReportTable, timing: boolean): ReportTable {
   return { title: t.title, columns: keep.map((j) => t.columns[j]), rows: t.rows.map((r) => keep.map((j) => r[j])), notes: t.notes };
 }
 
-/** The `run --json` document: every series' whole report. */
-export function runJson(version: string, source: string, analysed: AnalysedSeries[], timing: boolean, seconds: number): unknown {
+/** The `run --json` document: every series' whole report (and what Publish did, for `publish`). */
+export function runJson(version: string, source: string, analysed: AnalysedSeries[], timing: boolean, seconds: number, publish?: PublishOutcome): unknown {
   return {
     fairlead: version,
     source,
@@ -79,7 +82,31 @@ export function runJson(version: string, source: string, analysed: AnalysedSerie
       ),
       warnings: a.report.warnings,
     })),
+    ...(publish ? { publish: publishJson(publish) } : {}),
     ...(timing ? { seconds: Math.round(seconds * 100) / 100 } : {}),
+  };
+}
+
+/**
+ * The "publish" object: the parts shown, the log after the append (added, repeated, and rows:
+ * every entry it holds now), and per series the track record's counts and summary table.
+ */
+export function publishJson(p: PublishOutcome): unknown {
+  return {
+    parts: [...p.parts],
+    empty_parts: p.empty.map((e) => ({ part: e.part, why: e.why })),
+    published_at: p.publishedAt,
+    log: {
+      sheet: LOG_SHEET,
+      added: p.plan.added,
+      repeated: p.plan.repeated,
+      rows: p.plan.entries.length,
+      skipped: [...p.skipped],
+      notes: [...p.plan.sentences],
+    },
+    track: p.record.series.map((s) => ({ series: s.name, scored: s.scoredCount, awaiting: s.awaiting, summary: steadyTable(s.summary, false) })),
+    track_unread: [...p.record.unread],
+    track_superseded: p.record.superseded,
   };
 }
 

@@ -1,7 +1,9 @@
 /**
- * The `run` verb: read a book, analyse every chosen rate column with analyse() through the
- * engine (backtests spread over the worker threads), and write the managed sheets, workbook
- * names and chart images into a copy of the book (or into another book, or in place when told).
+ * The `run` and `publish` verbs: read a book, analyse every chosen rate column with analyse()
+ * through the engine (backtests spread over the worker threads), and write the managed sheets,
+ * workbook names and chart images into a copy of the book (or into another book, or in place
+ * when told). Publish goes one step further on the same path (publish.ts): the published
+ * snapshot, the run's forecasts appended to the book's log, and the track record.
  */
 import * as fs from "fs";
 import * as path from "path";
@@ -9,15 +11,18 @@ import type ExcelJS from "exceljs";
 import type { AnalysisOptions, Report } from "../core/analysis";
 import { resolveOptions } from "../core/analysis";
 import type { WeeklySeries } from "../core/series/types";
+import { PUBLISHED_SHEET, type PublishPart } from "../core/present/published";
 import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../core/present/sheets";
 import { stampOf, type StampInput } from "../core/present/stamp";
+import { TRACK_SHEET } from "../core/present/trackSheet";
 import { analyseMany, createEngine, type Engine, type Transport } from "../engine";
 import { NodeTransport } from "../engine/node";
 import { chartPng } from "./chartImage";
 import { UsageError } from "./errors";
+import { publishRun, readBookLog, writeLog, type PublishOutcome } from "./publish";
 import { bookBlock, chooseColumns, loadBook, readSeries, type Block } from "./source";
 import type { ProgressSink } from "./progress";
-import { checkManagedNames, partsNotKept, saveBook, writeManaged } from "./writeBook";
+import { RUN_SHEETS, checkManagedNames, partsNotKept, saveBook, writeManaged } from "./writeBook";
 
 export interface RunSettings {
   book: string;
@@ -38,8 +43,10 @@ export interface RunSettings {
   workers?: number;
   /** How the engine runs its jobs (default: worker threads); tests may run them inline. */
   transport?: Transport;
-  /** The run's timestamp for the stamp (default now); tests fix it. */
+  /** The run's timestamp for the stamp (default now); tests fix it. Publish is stamped with it too. */
   now?: Date;
+  /** Publish as well: the snapshot of these parts, the log append and the track record. */
+  publish?: { parts: PublishPart[] };
 }
 
 export interface RunResult {
@@ -50,6 +57,8 @@ export interface RunResult {
   written: string | null;
   warnings: string[];
   seconds: number;
+  /** What Publish wrote and found, when publishing. */
+  publish?: PublishOutcome;
 }
 
 /** The project's version, from the package.json above this file (source or build tree alike). */
@@ -91,7 +100,16 @@ export function analyseAll(engine: Engine, series: WeeklySeries[], options: Anal
 
 async function chartImages(sheets: ManagedSheet[]): Promise<Map<string, Uint8Array>> {
   const images = new Map<string, Uint8Array>();
-  for (const s of sheets) for (const c of s.charts) images.set(c.spec.id, await chartPng(c.spec, { width: c.widthPx, height: c.heightPx }));
+  // The published snapshot repeats charts of the managed sheets under ids of its own: draw each picture once.
+  const drawn = new Map<string, Uint8Array>();
+  for (const s of sheets) {
+    for (const c of s.charts) {
+      const key = JSON.stringify([{ ...c.spec, id: "" }, c.widthPx, c.heightPx]);
+      const png = drawn.get(key) ?? (await chartPng(c.spec, { width: c.widthPx, height: c.heightPx }));
+      drawn.set(key, png);
+      images.set(c.spec.id, png);
+    }
+  }
   return images;
 }
 
@@ -106,10 +124,14 @@ export async function runBook(settings: RunSettings, progress: ProgressSink, wri
 
   const wb = await loadBook(settings.book);
   const target: ExcelJS.Workbook = settings.into ? await loadBook(settings.into) : wb;
-  // Refuse before the slow part: a user's sheet under one of Fairlead's names stops the run.
-  if (write) checkManagedNames(target);
+  // Publish is a write: the log and the snapshot live in the book.
+  const writing = write || settings.publish !== undefined;
+  // Refuse before the slow part: a user's sheet under one of Fairlead's names stops the run,
+  // and so does a log that cannot be appended to.
+  if (writing) checkManagedNames(target, settings.publish ? [...RUN_SHEETS, PUBLISHED_SHEET, TRACK_SHEET] : RUN_SHEETS);
+  const log = settings.publish ? readBookLog(target) : null;
   const warnings: string[] = [];
-  if (write) {
+  if (writing) {
     const lost = await partsNotKept(settings.into ?? settings.book);
     if (lost.length > 0) {
       if (settings.inPlace) {
@@ -135,14 +157,18 @@ export async function runBook(settings: RunSettings, progress: ProgressSink, wri
   const analysed: AnalysedSeries[] = series.map((s, i) => ({ name: s.name ?? `Series ${i + 1}`, series: s, report: reports[i] }));
   const stamp = stampOf(block.label, analysed, settings.now ?? new Date(), fairleadVersion());
   const sheets = managedSheets(analysed, stamp);
+  const publish = settings.publish ? publishRun(analysed, stamp, settings.publish.parts, log) : undefined;
   let written: string | null = null;
-  if (write) {
+  if (writing) {
     progress.update(1, "Drawing the charts and writing the book");
-    const images = settings.charts ? await chartImages(sheets) : new Map<string, Uint8Array>();
-    writeManaged(target, sheets, images);
+    // The snapshot and the track record are replaced like the managed sheets; the log is only added to.
+    const all = publish ? [...sheets, publish.published, publish.track] : sheets;
+    const images = settings.charts ? await chartImages(all) : new Map<string, Uint8Array>();
+    writeManaged(target, all, images);
+    if (publish) writeLog(target, publish.plan, log);
     await saveBook(target, out);
     written = out;
   }
   progress.done();
-  return { analysed, sheets, stamp, written, warnings, seconds: (Date.now() - started) / 1000 };
+  return { analysed, sheets, stamp, written, warnings, seconds: (Date.now() - started) / 1000, ...(publish ? { publish } : {}) };
 }

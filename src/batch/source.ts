@@ -31,8 +31,11 @@ export interface Block {
 }
 
 
-/** A cell's value as the add-in would see it: formulas by their result, rich text as text. */
-function plainValue(v: ExcelJS.CellValue): unknown {
+/**
+ * A cell's value as the add-in would see it: formulas by their result, rich text and
+ * hyperlinks as their text, error values as their text ("#N/A"), null for an empty cell.
+ */
+export function plainValue(v: ExcelJS.CellValue): unknown {
   if (v === null || v === undefined) return null;
   if (v instanceof Date || typeof v === "number" || typeof v === "string" || typeof v === "boolean") return v;
   if (typeof v === "object") {
@@ -44,7 +47,12 @@ function plainValue(v: ExcelJS.CellValue): unknown {
       if (typeof r === "object" && r !== null && "error" in r) return String((r as { error: unknown }).error);
       return r;
     }
-    if ("text" in v) return String((v as { text: unknown }).text);
+    if ("text" in v) {
+      // A hyperlink; its text may itself be rich text.
+      const t = (v as { text: unknown }).text;
+      if (typeof t === "object" && t !== null && "richText" in t) return (t as ExcelJS.CellRichTextValue).richText.map((r) => r.text).join("");
+      return String(t);
+    }
   }
   return String(v);
 }

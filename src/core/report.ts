@@ -24,5 +24,5 @@ export function table(title: string, columns: string[], rows: Cell[][], notes: s
 
 /** Report columns (and label rows) whose cells are ISO dates, which sinks write as real dates. */
 export function isDateColumn(name: string): boolean {
-  return /^(from |to |first |last )?week ending$|^week( forecast)?$|^last week seen$/i.test(name);
+  return /^(from |to |first |last )?week ending$|^week( forecast)?$|^last week seen$|^(origin|target) week$/i.test(name);
 }

@@ -12,22 +12,31 @@
  * unscored. What a refresh computes depends only on the cells and the saved settings, so a
  * colleague's refresh of the same book gives the same numbers; a series whose cells did not
  * change is answered from the engine's cache without fitting anything.
+ *
+ * When the book keeps a forecast log (a Publish started one), a run or a refresh also rewrites
+ * Fairlead Track Record from the log as it stands and the rates just read, in the same write
+ * as the managed sheets. Neither adds to the log nor touches Fairlead Published: only Publish
+ * does (publishFlow.ts).
  */
 import type { Report } from "../core/analysis";
 import { needsBacktest, resolveOptions, type AnalysisOptions } from "../core/analysis";
 import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../core/present/sheets";
-import { stampOf } from "../core/present/stamp";
+import { stampOf, type StampInput } from "../core/present/stamp";
+import { TRACK_SHEET } from "../core/present/trackSheet";
+import { LogRefused, type AppendPlan, type LogReading } from "../core/record/log";
 import { InputError } from "../core/series/errors";
 import type { WeeklySeries } from "../core/series/types";
 import { analyseMany, type Engine } from "../engine";
 import { isEngineCancelled, plainReason } from "../engine/errors";
 import { cellName } from "../core/present/a1";
 import { originOf, seriesOfBlocks } from "./dataSummary";
+import type { LogAppended } from "./excel/forecastLog";
 import type { SourceBlocks } from "./excel/readSource";
 import type { WriteOptions, WriteResult } from "./excel/writeSheets";
 import type { SheetLedger } from "./ledger";
 import type { PaneSettings, SavedSeries } from "./settings";
 import { sourceLabel, type DataSource } from "./source";
+import { trackRecordSheet } from "./trackRecord";
 
 /** The workbook as a run needs it. */
 export interface PaneWorkbook {
@@ -35,6 +44,10 @@ export interface PaneWorkbook {
   name(): Promise<string>;
   readSource(source: DataSource): Promise<SourceBlocks>;
   write(sheets: ManagedSheet[], ledgers: Record<string, SheetLedger>, options: WriteOptions): Promise<WriteResult>;
+  /** The forecast log as it stands, or null when the book has none; throws LogRefused when a sheet of its name is not the log. */
+  readLog(): Promise<LogReading | null>;
+  /** Writes an append plan's rows below the log (starting the sheet on a first Publish); never a row above. */
+  appendLog(plan: AppendPlan, reading: LogReading | null): Promise<LogAppended>;
   saveSettings(settings: PaneSettings): Promise<void>;
 }
 
@@ -83,6 +96,9 @@ export function runOptions(entry: SavedSeries, series: WeeklySeries, kind: "run"
 
 export interface RunOutcome {
   analysed: AnalysedSeries[];
+  /** The stamp the sheets carry: what Publish stamps its sheets with. */
+  stamp: StampInput;
+  /** The managed sheets written, and Fairlead Track Record after them when the book keeps a log. */
   sheets: ManagedSheet[];
   written: WriteResult;
   /** The settings as saved after the run (series names refreshed, new ledgers). */
@@ -173,6 +189,9 @@ export async function runAnalysis(request: RunRequest, deps: RunDeps, control: R
   const labels = request.series.map((e) => sourceLabel(e.source)).join("; ");
   const stamp = stampOf(book ? `${book} › ${labels}` : labels, analysed, (deps.now ?? (() => new Date()))(), deps.version);
   const sheets = managedSheets(analysed, stamp);
+  const notes: string[] = [];
+  const track = await trackOfRun(deps.workbook, analysed, stamp, request.settings, notes);
+  if (track) sheets.push(track);
 
   say(1 - WRITE_SHARE, "Writing Fairlead's sheets and charts");
   const written = await deps.workbook.write(sheets, request.settings.ledgers, request.write ?? {});
@@ -189,5 +208,24 @@ export async function runAnalysis(request: RunRequest, deps: RunDeps, control: R
   const warnings = analysed.flatMap((a) =>
     a.report.warnings.filter((w) => !a.series.warnings.includes(w)).map((w) => (analysed.length > 1 ? `${a.name}: ${w}` : w)),
   );
-  return { analysed, sheets, written, settings, warnings };
+  return { analysed, stamp, sheets, written, settings, warnings: [...warnings, ...notes] };
+}
+
+/**
+ * The track record a run rewrites: from the log as it stands, when the book keeps one. A sheet
+ * of the log's name that is not the log leaves the track record as it was; that is said only
+ * when the pane has written a track record in this book before (else the sheet is simply the
+ * user's, and a run has no business with it).
+ */
+async function trackOfRun(workbook: PaneWorkbook, analysed: AnalysedSeries[], stamp: StampInput, settings: PaneSettings, notes: string[]): Promise<ManagedSheet | null> {
+  let reading: LogReading | null;
+  try {
+    reading = await workbook.readLog();
+  } catch (e) {
+    if (!(e instanceof LogRefused)) throw e;
+    if (settings.ledgers[TRACK_SHEET]) notes.push(`${TRACK_SHEET} was left as it was: ${e.message}`);
+    return null;
+  }
+  if (reading === null) return null;
+  return trackRecordSheet(reading.rows.map((r) => r.entry), analysed, stamp).sheet;
 }

@@ -1,9 +1,11 @@
 /**
  * The Fairlead pane: wires the page to the run flow. Every call into the host lives in excel/;
  * what the cells mean is decided by the core intake (dataSummary.ts); what a run does is
- * runFlow.ts; the form's meaning is form.ts. This module moves values between those and the
- * page, and keeps the pane's state: the saved series, the run in progress, the watch.
+ * runFlow.ts, and what Publish does publishFlow.ts; the form's meaning is form.ts. This module
+ * moves values between those and the page, and keeps the pane's state: the saved series, the
+ * run in progress, the last run's results (what Publish publishes), the watch.
  */
+import { PUBLISH_PARTS, type PublishPart } from "../core/present/published";
 import type { Cell } from "../core/report";
 import { functionsEngine } from "../functions/engine";
 import { version } from "../../package.json";
@@ -15,6 +17,7 @@ import type { TableInfo } from "./excel/tables";
 import { watchSources, type Watch } from "./excel/watch";
 import { WriteRefused } from "./excel/writeSheets";
 import { defaultForm, formFromOptions, METHOD_CHOICES, optionsFromForm, type FormProblem, type PaneForm } from "./form";
+import { publishRun, PublishStopped } from "./publishFlow";
 import { RefreshScheduler } from "./refreshScheduler";
 import { runAnalysis, RunStopped, type RunOutcome } from "./runFlow";
 import { emptySettings, withoutSeries, withSeries, type PaneSettings, type SavedSeries } from "./settings";
@@ -72,12 +75,26 @@ interface PaneState {
   current: { source: DataSource; name: string } | null;
   tables: TableInfo[];
   running: AbortController | null;
+  /** A Publish is writing (Run and Publish wait for each other). */
+  publishing: boolean;
+  /** The last Run or refresh of this session that finished: what Publish publishes. */
+  lastRun: RunOutcome | null;
   watch: Watch | null;
   refresh: RefreshScheduler | null;
   spill: RefreshScheduler | null;
 }
 
-const state: PaneState = { settings: emptySettings(), current: null, tables: [], running: null, watch: null, refresh: null, spill: null };
+const state: PaneState = {
+  settings: emptySettings(),
+  current: null,
+  tables: [],
+  running: null,
+  publishing: false,
+  lastRun: null,
+  watch: null,
+  refresh: null,
+  spill: null,
+};
 
 // ---- the form --------------------------------------------------------------------------
 
@@ -277,6 +294,7 @@ async function readData(): Promise<{ source: DataSource; name: string } | null> 
 
 function setRunning(running: boolean, label = "Running"): void {
   byId<HTMLButtonElement>("run").disabled = running;
+  byId<HTMLButtonElement>("publish").disabled = running || !state.lastRun;
   byId<HTMLButtonElement>("read-data").disabled = running;
   show("cancel", running);
   show("progress-box", running || byId<HTMLProgressElement>("progress").value > 0);
@@ -317,7 +335,7 @@ function showOutcome(outcome: RunOutcome, refreshed: boolean): void {
 }
 
 async function run(series: SavedSeries[], opts: { refreshed: boolean; adopt?: string[] }): Promise<void> {
-  if (state.running) return;
+  if (state.running || state.publishing) return;
   const controller = new AbortController();
   state.running = controller;
   setRunning(true, opts.refreshed ? "Refreshing" : "Running");
@@ -328,7 +346,9 @@ async function run(series: SavedSeries[], opts: { refreshed: boolean; adopt?: st
       { onProgress: progress, signal: controller.signal },
     );
     state.settings = outcome.settings;
+    state.lastRun = outcome;
     showOutcome(outcome, opts.refreshed);
+    showPublishReady();
     renderWatched();
     await restartWatch();
     if (opts.refreshed) await extendSpillCharts();
@@ -351,6 +371,77 @@ async function onRun(adopt?: string[]): Promise<void> {
   if (!current) return;
   const entry: SavedSeries = { source: current.source, name: current.name, options: analysis };
   await run(withSeries(state.settings.series, entry), { refreshed: false, adopt });
+}
+
+// ---- Publish ---------------------------------------------------------------------------
+
+function renderParts(): void {
+  byId<HTMLFieldSetElement>("publish-parts").append(
+    ...PUBLISH_PARTS.map(({ part, label }) => {
+      const box = document.createElement("input");
+      box.type = "checkbox";
+      box.value = part;
+      box.checked = true;
+      box.id = `publish-${part}`;
+      const l = document.createElement("label");
+      l.append(box, ` ${label}`);
+      return l;
+    }),
+  );
+}
+
+function chosenParts(): PublishPart[] {
+  return Array.from(byId("publish-parts").querySelectorAll<HTMLInputElement>("input:checked")).map((i) => i.value as PublishPart);
+}
+
+/** Says what Publish would publish: the last run's series and week, or that a run comes first. */
+function showPublishReady(): void {
+  const last = state.lastRun;
+  byId<HTMLButtonElement>("publish").disabled = !last || state.running !== null || state.publishing;
+  setText(
+    "publish-status",
+    last
+      ? `Publishes ${last.analysed.map((a) => a.name).join(", ")} as of week ending ${last.analysed[0]?.report.lastWeek ?? "—"}.`
+      : "Run first: Publish shows the results of the last run.",
+  );
+}
+
+function showPublishError(message: string, adoptable: string[] = []): void {
+  const box = byId("publish-error");
+  box.textContent = message;
+  box.hidden = false;
+  const adopt = byId<HTMLButtonElement>("publish-adopt");
+  adopt.hidden = adoptable.length === 0;
+  adopt.dataset.sheets = JSON.stringify(adoptable);
+}
+
+async function onPublish(adopt?: string[]): Promise<void> {
+  const last = state.lastRun;
+  if (!last || state.running || state.publishing) return;
+  state.publishing = true;
+  byId<HTMLButtonElement>("publish").disabled = true;
+  byId<HTMLButtonElement>("run").disabled = true;
+  show("publish-error", false);
+  show("publish-adopt", false);
+  show("publish-result", false);
+  setText("publish-status", "Publishing…");
+  try {
+    const outcome = await publishRun({ run: last, parts: chosenParts(), settings: state.settings, write: { activate: true, adopt } }, { workbook: excelWorkbook });
+    state.settings = outcome.settings;
+    const when = new Date().toLocaleTimeString(undefined, { hour: "2-digit", minute: "2-digit" });
+    setText("publish-status", `Published at ${when}: ${last.analysed.map((a) => a.name).join(", ")}, as of week ending ${last.analysed[0]?.report.lastWeek ?? "—"}.`);
+    listItems("publish-result", outcome.sentences);
+    show("publish-result", true);
+  } catch (e) {
+    if (e instanceof WriteRefused) showPublishError(e.message, e.adoptable);
+    else if (e instanceof PublishStopped) showPublishError(e.message);
+    else showPublishError(`Excel did not take the published sheets: ${e instanceof Error ? e.message : String(e)}. Publish again.`);
+    setText("publish-status", "Not published.");
+  } finally {
+    state.publishing = false;
+    byId<HTMLButtonElement>("run").disabled = false;
+    byId<HTMLButtonElement>("publish").disabled = !state.lastRun;
+  }
 }
 
 // ---- watched series and refresh --------------------------------------------------------
@@ -437,6 +528,7 @@ async function start(): Promise<void> {
     byId("method"),
     METHOD_CHOICES.map((m) => ({ value: m.code, label: m.label })),
   );
+  renderParts();
   fillForm(defaultForm());
   const inExcel = await whenExcelReady();
   if (!inExcel) {
@@ -477,6 +569,8 @@ async function start(): Promise<void> {
   byId("run").addEventListener("click", () => void onRun());
   byId("cancel").addEventListener("click", () => state.running?.abort());
   byId("adopt").addEventListener("click", () => void onRun(JSON.parse(byId("adopt").dataset.sheets ?? "[]") as string[]));
+  byId("publish").addEventListener("click", () => void onPublish());
+  byId("publish-adopt").addEventListener("click", () => void onPublish(JSON.parse(byId("publish-adopt").dataset.sheets ?? "[]") as string[]));
   byId<HTMLInputElement>("watch").addEventListener("change", async (ev) => {
     state.settings = { ...state.settings, watch: (ev.target as HTMLInputElement).checked };
     await excelWorkbook.saveSettings(state.settings).catch(() => undefined);

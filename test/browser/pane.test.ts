@@ -7,9 +7,9 @@
  *
  * The flow a desk follows: read a lane from the WeeklyRates table, run with the pane's
  * defaults, find the four managed sheets, names, charts and saved settings; paste next week's
- * row under the table and see the pane refresh by itself, updating its charts in place; type
- * into a managed sheet and see the next refresh refuse to overwrite it; cancel a run and find
- * the book untouched. Screenshots of each stage go to test/artifacts/pane/.
+ * row under the table and see the pane refresh by itself, updating its charts in place; publish
+ * and find the snapshot, the forecast log and the track record; type into a managed sheet and
+ * see the next refresh refuse to overwrite it; cancel a run and find the book untouched. Screenshots of each stage go to test/artifacts/pane/.
  * Needs `npm run build` first (npm run test:browser does it).
  */
 import * as fs from "fs";
@@ -19,6 +19,9 @@ import * as path from "path";
 import ExcelJS from "exceljs";
 import { chromium, type Browser, type Page } from "playwright-core";
 import { CAUTION, MANAGED_MARK } from "../../src/core/present/stamp";
+import { PUBLISHED_SHEET, PUBLISH_PARTS } from "../../src/core/present/published";
+import { TRACK_SHEET } from "../../src/core/present/trackSheet";
+import { LOG_COLUMNS, LOG_MARK, LOG_SHEET } from "../../src/core/record/log";
 import { MANAGED_SHEETS } from "../../src/core/present/sheets";
 import { HISTORY_WEEKS_SHOWN } from "../../src/core/present/charts";
 import { outlookName } from "../../src/core/present/names";
@@ -616,6 +619,52 @@ test("a week pasted under the table refreshes the pane by itself, charts updated
   expect(await host<string[]>("handlerErrors")).toEqual([]);
   await screenshot("refreshed", "#run-result");
 }, 180_000);
+
+test("Publish writes the snapshot, starts the forecast log with the outlook and scores it in the track record", async () => {
+  const asOf = isoOf(asOfAfterRefresh);
+  expect(await page.locator("#publish").isEnabled()).toBe(true);
+  expect(await text("#publish-status")).toBe(`Publishes ${LANE} as of week ending ${asOf}.`);
+  const parts = await page.locator("#publish-parts label").allInnerTexts();
+  expect(parts.map((t) => t.trim())).toEqual(PUBLISH_PARTS.map((p) => p.label));
+  expect(await page.locator("#publish-parts input:checked").count()).toBe(PUBLISH_PARTS.length);
+  const before = await host<Snapshot>("snapshot");
+
+  await page.click("#publish");
+  await page.locator("#publish-result").waitFor({ state: "visible", timeout: 30_000 });
+  expect(await page.locator("#publish-error").isHidden()).toBe(true);
+  expect(await text("#publish-status")).toMatch(new RegExp(`^Published at .+: ${LANE}, as of week ending ${asOf}\\.$`));
+  const sentences = await page.locator("#publish-result li").allInnerTexts();
+  expect(sentences[0]).toBe("Started Fairlead Log with 12 forecasts, rows 5–16.");
+  expect(sentences).toContain(`${TRACK_SHEET}: 0 forecasts scored, 12 awaiting their weeks.`);
+
+  const names = await host<string[]>("sheetNames");
+  expect(names).toEqual(expect.arrayContaining([PUBLISHED_SHEET, TRACK_SHEET, LOG_SHEET]));
+  expect((await host<{ values: CellValue[][] }>("read", PUBLISHED_SHEET, "A1")).values[0][0]).toBe(MANAGED_MARK);
+  expect((await host<{ values: CellValue[][] }>("read", TRACK_SHEET, "A1")).values[0][0]).toBe(MANAGED_MARK);
+  expect(await host<string>("activeSheet")).toBe(PUBLISHED_SHEET);
+  expect((await host<ChartView[]>("charts", PUBLISHED_SHEET)).length).toBeGreaterThanOrEqual(1);
+
+  // The log: its head, its header, then one row per week ahead, weeks as dates.
+  const log = await host<CellValue[][]>("grid", LOG_SHEET);
+  expect(log[0][0]).toBe(LOG_MARK);
+  expect(log[3].slice(0, LOG_COLUMNS.length)).toEqual([...LOG_COLUMNS]);
+  expect(log).toHaveLength(4 + 12);
+  const origin = LOG_COLUMNS.indexOf("Origin week");
+  const target = LOG_COLUMNS.indexOf("Target week");
+  for (let i = 0; i < 12; i++) {
+    expect(log[4 + i][origin]).toBe(asOfAfterRefresh);
+    expect(log[4 + i][target]).toBe(asOfAfterRefresh + (i + 1) * WEEK);
+  }
+  const cell = await host<{ formats: string[][] }>("read", LOG_SHEET, `${colLetters(target)}5`);
+  expect(cell.formats[0][0]).toBe("yyyy-mm-dd");
+
+  // The four managed sheets were left as the refresh wrote them.
+  const after = await host<Snapshot>("snapshot");
+  for (const s of SHEET_NAMES) expect(after.sheets[s]).toEqual(before.sheets[s]);
+  const ledgers = (await host<Record<string, Record<string, unknown>>>("settings"))["fairlead.ledgers"];
+  expect(Object.keys(ledgers).sort()).toEqual([...SHEET_NAMES, PUBLISHED_SHEET, TRACK_SHEET].sort());
+  await screenshot("published", "#publish-section");
+}, 60_000);
 
 let typedCell = "";
 let typedWas: CellValue = "";

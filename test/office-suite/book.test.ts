@@ -11,16 +11,11 @@ import * as path from "path";
 import ExcelJS from "exceljs";
 import { MANAGED_MARK } from "../../src/core/present/stamp";
 import { BATCH_CLI } from "../engine/paths";
-import { libreOfficeAvailable, sheetsAsCsv } from "./libreoffice";
+import { expectSame, libreOfficeAvailable, loDate, sheetsAsCsv, tableRows, type Table } from "./libreoffice";
 
 const SAMPLES = path.join(__dirname, "..", "..", "sample-workbooks");
 const LANES = ["Halden–Corvane FEU", "Corvane–Estmar FEU", "Estmar–Halden FEU"];
 
-interface Table {
-  title: string;
-  columns: string[];
-  rows: (number | string | null)[][];
-}
 interface RunDoc {
   series: { name: string; last_week: string; tables: Record<string, Table> }[];
 }
@@ -55,35 +50,6 @@ beforeAll(() => {
 afterAll(() => {
   if (dir) fs.rmSync(dir, { recursive: true, force: true });
 });
-
-/** The rows of a table as LibreOffice read them: found by title under the series' heading. */
-function tableRows(sheet: string[][], seriesName: string, t: Table): string[][] {
-  const heading = sheet.findIndex((r) => r[0] === seriesName);
-  expect(heading).toBeGreaterThanOrEqual(0);
-  const top = sheet.findIndex((r, i) => i > heading && r[0] === t.title);
-  expect(top).toBeGreaterThan(heading);
-  expect(sheet[top + 1].slice(0, t.columns.length)).toEqual(t.columns);
-  return sheet.slice(top + 2, top + 2 + t.rows.length);
-}
-
-/** A report cell against LibreOffice's text of it: numbers to 1e-12 relative (its raw CSV keeps 15 digits or more). */
-function expectSame(lo: string, cell: number | string | null): void {
-  if (cell === null) expect(lo).toBe("");
-  else if (typeof cell === "number") {
-    const v = Number(lo);
-    expect(Number.isFinite(v)).toBe(true);
-    expect(Math.abs(v - cell)).toBeLessThanOrEqual(1e-12 * Math.max(1, Math.abs(cell)));
-  } else expect(lo).toBe(cell);
-}
-
-/** LibreOffice writes a date cell in its raw CSV as the ISO day or as M/D/YY text, depending on version: read both. */
-function loDate(text: string): string {
-  if (/^\d{4}-\d{2}-\d{2}$/.test(text)) return text;
-  const m = /^(\d{1,2})\/(\d{1,2})\/(\d{2,4})$/.exec(text);
-  if (!m) return text;
-  const year = m[3].length === 2 ? 2000 + Number(m[3]) : Number(m[3]);
-  return `${year}-${m[1].padStart(2, "0")}-${m[2].padStart(2, "0")}`;
-}
 
 describe("the desk book, as LibreOffice reads it", () => {
   test("the outlook values are the report's, lane by lane, dates included", () => {

@@ -7,6 +7,8 @@ import { analyse } from "../../src/core/analysis";
 import { managedSheets, MANAGED_SHEETS, type ManagedSheet } from "../../src/core/present/sheets";
 import { MANAGED_MARK } from "../../src/core/present/stamp";
 import { createEngine, InlineTransport, type Engine } from "../../src/engine";
+import type { LogReading } from "../../src/core/record/log";
+import type { LogAppended } from "../../src/taskpane/excel/forecastLog";
 import type { SourceBlocks } from "../../src/taskpane/excel/readSource";
 import type { WriteOptions, WriteResult } from "../../src/taskpane/excel/writeSheets";
 import { ledgerOf } from "../../src/taskpane/ledger";
@@ -52,6 +54,12 @@ class StandInBook implements PaneWorkbook {
       sheets: sheets.map((s) => ({ name: s.name, rows: s.cells.length, cols: s.width, charts: [], created: true })),
       ledgers: sheets.map((s) => ledgerOf(s.name, s.cells.map((r) => r.map((c) => c ?? "")), [], s.names.map((n) => n.name))),
     };
+  }
+  async readLog(): Promise<LogReading | null> {
+    return null;
+  }
+  async appendLog(): Promise<LogAppended> {
+    throw new Error("a run never adds to the forecast log");
   }
   async saveSettings(s: PaneSettings): Promise<void> {
     this.saved.push(s);

@@ -93,7 +93,9 @@ export function publishedSheet(analysed: AnalysedSeries[], stamp: StampInput, pa
         widest = Math.max(widest, t.columns.length);
       }
       if (present === 0) {
-        b.set(b.cursor, 0, `Nothing to publish here: ${MISSING[part]} for ${a.name}.`);
+        // Seasonal factors come with the checks: say that, not a guess about the data, when they were off.
+        const why = part === "season" && !a.report.options.checks ? "the checks, which compute the seasonal factors, were off" : MISSING[part];
+        b.set(b.cursor, 0, `Nothing to publish here: ${why} for ${a.name}.`);
         b.style(b.cursor, 0, 1, 1, "note");
         b.cursor += 2;
         continue;

@@ -84,7 +84,9 @@ interface Existing {
 }
 
 /**
- * Writes `sheets` (all four, in order). `ledgers` are the ones saved with the book. Throws
+ * Writes `sheets`: a run's four (and the track record when the book keeps a forecast log), or
+ * Publish's two. `ledgers` are the ones saved with the book; the sheets not in `sheets` and
+ * their names are left alone. Throws
  * WriteRefused before writing anything when a sheet is not the pane's to rewrite.
  */
 export async function writeManagedSheets(
@@ -100,7 +102,9 @@ export async function writeManagedSheets(
   // Round trip 1: which managed sheets exist, and which of the names the pane writes or wrote.
   const found = sheets.map((s) => book.worksheets.getItemOrNullObject(s.name));
   for (const f of found) f.load("name");
-  const oldNames = new Set(Object.values(ledgers).flatMap((l) => l.names));
+  // Names the pane made over the sheets it now rewrites; those over sheets it leaves alone
+  // (a Publish writes two sheets, not the Outlook) are not this write's to move or delete.
+  const oldNames = new Set(sheets.flatMap((s) => ledgers[s.name]?.names ?? []));
   const wanted = new Set([...sheets.flatMap((s) => s.names.map((n) => n.name)), ...oldNames]);
   const nameItems = new Map([...wanted].map((n) => [n, book.names.getItemOrNullObject(n)] as const));
   for (const item of nameItems.values()) item.load("name");

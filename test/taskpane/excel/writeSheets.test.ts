@@ -237,4 +237,14 @@ describe("writeManagedSheets", () => {
     await writeManagedSheets(context, [outlookSheet()], { "Fairlead Outlook": old }, { charts: false });
     expect(log.namesDeleted).toEqual(["FL_CE_POINT"]);
   });
+
+  it("leaves the names over a sheet it is not writing (Publish writes two sheets, not the Outlook)", async () => {
+    const outlook = { ...ledgerFor(outlookSheet()), names: ["FL_HC_POINT", "FL_HC_WEEK"] };
+    const published: ManagedSheet = { ...outlookSheet(), kind: "published", name: "Fairlead Published", names: [] };
+    const { log, context } = book({}, ["FL_HC_POINT", "FL_HC_WEEK"]);
+    await writeManagedSheets(context, [published], { "Fairlead Outlook": outlook }, { charts: false });
+    expect(log.added).toEqual(["Fairlead Published"]);
+    expect(log.namesDeleted).toEqual([]);
+    expect(log.namesAdded).toEqual([]);
+  });
 });

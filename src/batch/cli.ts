@@ -203,7 +203,7 @@ async function runVerb(verb: "run" | "publish", argv: string[], ctx: CliContext)
   );
   const write = ctx.stdout ?? ((t: string) => void process.stdout.write(t));
   if (json) write(jsonText(runJson(fairleadVersion(), result.stamp.source, result.analysed, has(p, "timing"), result.seconds, result.publish)));
-  else write(summaryText(result.stamp.source, result.analysed, result.written, result.seconds, result.warnings, result.publish));
+  else write(summaryText(result.stamp.source, result.analysed, result.written, result.seconds, result.warnings, result.publish, result.track));
   return EXIT_OK;
 }
 

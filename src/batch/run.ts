@@ -14,7 +14,10 @@ import type { WeeklySeries } from "../core/series/types";
 import { PUBLISHED_SHEET, type PublishPart } from "../core/present/published";
 import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../core/present/sheets";
 import { stampOf, type StampInput } from "../core/present/stamp";
-import { TRACK_SHEET } from "../core/present/trackSheet";
+import { TRACK_SHEET, trackSheet } from "../core/present/trackSheet";
+import { MANAGED_MARK } from "../core/present/stamp";
+import { LOG_SHEET, type LogReading } from "../core/record/log";
+import { actualsOf, trackRecord, type TrackRecord } from "../core/record/track";
 import { analyseMany, createEngine, type Engine, type Transport } from "../engine";
 import { NodeTransport } from "../engine/node";
 import { chartPng } from "./chartImage";
@@ -22,7 +25,7 @@ import { UsageError } from "./errors";
 import { publishRun, readBookLog, writeLog, type PublishOutcome } from "./publish";
 import { bookBlock, chooseColumns, loadBook, readSeries, type Block } from "./source";
 import type { ProgressSink } from "./progress";
-import { RUN_SHEETS, checkManagedNames, partsNotKept, saveBook, writeManaged } from "./writeBook";
+import { RUN_SHEETS, checkManagedNames, partsNotKept, saveBook, sheetNamed, writeManaged } from "./writeBook";
 
 export interface RunSettings {
   book: string;
@@ -59,6 +62,26 @@ export interface RunResult {
   seconds: number;
   /** What Publish wrote and found, when publishing. */
   publish?: PublishOutcome;
+  /** The track record written (by publish, or by a run over a book that keeps a log). */
+  track?: TrackRecord;
+}
+
+/**
+ * The log a plain run scores for the track record: none when the book keeps no log, or when
+ * the track record cannot be rewritten, which a warning says only if Fairlead wrote one before
+ * (a sheet of the user's that happens to be called Fairlead Log is no business of a run).
+ */
+function logForTrack(wb: ExcelJS.Workbook, warnings: string[]): LogReading | null {
+  if (!sheetNamed(wb, LOG_SHEET)) return null;
+  const had = sheetNamed(wb, TRACK_SHEET);
+  if (had && had.getCell(1, 1).value !== MANAGED_MARK) return null;
+  try {
+    return readBookLog(wb);
+  } catch (e) {
+    if (!(e instanceof UsageError)) throw e;
+    if (had) warnings.push(`${TRACK_SHEET} is left as it was: ${e.message}`);
+    return null;
+  }
 }
 
 /** The project's version, from the package.json above this file (source or build tree alike). */
@@ -129,8 +152,8 @@ export async function runBook(settings: RunSettings, progress: ProgressSink, wri
   // Refuse before the slow part: a user's sheet under one of Fairlead's names stops the run,
   // and so does a log that cannot be appended to.
   if (writing) checkManagedNames(target, settings.publish ? [...RUN_SHEETS, PUBLISHED_SHEET, TRACK_SHEET] : RUN_SHEETS);
-  const log = settings.publish ? readBookLog(target) : null;
   const warnings: string[] = [];
+  const log = settings.publish ? readBookLog(target) : writing ? logForTrack(target, warnings) : null;
   if (writing) {
     const lost = await partsNotKept(settings.into ?? settings.book);
     if (lost.length > 0) {
@@ -158,11 +181,14 @@ export async function runBook(settings: RunSettings, progress: ProgressSink, wri
   const stamp = stampOf(block.label, analysed, settings.now ?? new Date(), fairleadVersion());
   const sheets = managedSheets(analysed, stamp);
   const publish = settings.publish ? publishRun(analysed, stamp, settings.publish.parts, log) : undefined;
+  // A run over a book that keeps a log scores it against the rates just read, as the pane's Run does.
+  const track = publish ? publish.record : log ? trackRecord(log.rows.map((r) => r.entry), actualsOf(analysed)) : undefined;
+  const trackOnly = !publish && track ? trackSheet(track, stamp) : null;
   let written: string | null = null;
   if (writing) {
     progress.update(1, "Drawing the charts and writing the book");
     // The snapshot and the track record are replaced like the managed sheets; the log is only added to.
-    const all = publish ? [...sheets, publish.published, publish.track] : sheets;
+    const all = publish ? [...sheets, publish.published, publish.track] : trackOnly ? [...sheets, trackOnly] : sheets;
     const images = settings.charts ? await chartImages(all) : new Map<string, Uint8Array>();
     writeManaged(target, all, images);
     if (publish) writeLog(target, publish.plan, log);
@@ -170,5 +196,5 @@ export async function runBook(settings: RunSettings, progress: ProgressSink, wri
     written = out;
   }
   progress.done();
-  return { analysed, sheets, stamp, written, warnings, seconds: (Date.now() - started) / 1000, ...(publish ? { publish } : {}) };
+  return { analysed, sheets, stamp, written, warnings, seconds: (Date.now() - started) / 1000, ...(publish ? { publish } : {}), ...(track ? { track } : {}) };
 }

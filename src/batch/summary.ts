@@ -10,7 +10,7 @@ import type { Cell } from "../core/report";
 import type { AnalysedSeries } from "../core/present/sheets";
 import { PUBLISHED_SHEET, PUBLISH_PARTS } from "../core/present/published";
 import { CAUTION, optionsPhrase } from "../core/present/stamp";
-import type { SeriesRecord } from "../core/record/track";
+import type { SeriesRecord, TrackRecord } from "../core/record/track";
 import type { PublishOutcome } from "./publish";
 
 const WEEKS_SHOWN = 4;
@@ -67,11 +67,18 @@ export function publishLines(p: PublishOutcome): string[] {
   }
   lines.push(...p.plan.sentences);
   if (p.skipped.length > 0) lines.push(`Not logged, because undated (no target weeks to score): ${p.skipped.join(", ")}.`);
-  for (const s of p.record.series) {
+  lines.push(...trackLines(p.record));
+  return lines;
+}
+
+/** One line per series of the track record, and the series it could not score. */
+export function trackLines(record: TrackRecord): string[] {
+  const lines: string[] = [];
+  for (const s of record.series) {
     const mape = mapePhrase(s);
     lines.push(`Track record, ${s.name}: ${plural(s.scoredCount, "forecast")} scored, ${s.awaiting} awaiting${mape ? `; ${mape}` : ""}.`);
   }
-  if (p.record.unread.length > 0) lines.push(`Track record: not scored, because this run did not read their rates: ${p.record.unread.join(", ")}.`);
+  if (record.unread.length > 0) lines.push(`Track record: not scored, because this run did not read their rates: ${record.unread.join(", ")}.`);
   return lines;
 }
 
@@ -82,6 +89,7 @@ export function summaryText(
   seconds: number,
   warnings: string[],
   publish?: PublishOutcome,
+  track?: TrackRecord,
 ): string {
   const first = analysed[0].report;
   const ot = first.tables.outlook;
@@ -112,6 +120,7 @@ export function summaryText(
   lines.push(`Options: ${optionsPhrase(first.options)}.`);
   if (first.tables.backtest) lines.push("MASE is the chosen method's in the backtest, 1 and 4 weeks ahead (lower is better; the Backtest sheet compares every method).");
   if (publish) lines.push(...publishLines(publish));
+  else if (track) lines.push(...trackLines(track));
   for (const w of warnings) lines.push(w);
   lines.push(written ? `Written to ${written} in ${seconds.toFixed(1)} s.` : `Done in ${seconds.toFixed(1)} s.`);
   lines.push(CAUTION);

@@ -390,13 +390,19 @@ describe("sheets of the user's", () => {
 });
 
 describe("run after a publish", () => {
-  test("replaces only the four managed sheets: Published, Log and Track Record stay as they were, pictures included", async () => {
+  test("adds nothing to the log and leaves Published as it was, pictures included; the track record is scored again, as the pane's Run does", async () => {
     const text = await ok(SECOND_AT, "run", "first.xlsx", ...QUICK, "--out", "rerun.xlsx");
-    expect(text).not.toMatch(/Fairlead Log|Track record/);
+    expect(text).not.toMatch(/Fairlead Log|Published/);
+    expect(text).toMatch(/^Track record, Halden–Corvane FEU: 0 forecasts scored, 4 awaiting\.$/m);
     const was = await book("first.xlsx");
     const now = await book("rerun.xlsx");
     expect(now.worksheets.map((w) => w.name)).toEqual(was.worksheets.map((w) => w.name));
-    for (const name of [PUBLISHED_SHEET, LOG_SHEET, TRACK_SHEET]) expect(snapshot(sheet(now, name))).toEqual(snapshot(sheet(was, name)));
+    for (const name of [PUBLISHED_SHEET, LOG_SHEET]) expect(snapshot(sheet(now, name))).toEqual(snapshot(sheet(was, name)));
+    // Rewritten under the new run's stamp: the same scores (no new weeks), a later "Made" time.
+    const made = (wb: ExcelJS.Workbook): unknown => sheet(wb, TRACK_SHEET).getColumn(1).values.indexOf("Made");
+    const madeAt = (wb: ExcelJS.Workbook): unknown => sheet(wb, TRACK_SHEET).getCell(Number(made(wb)), 2).value;
+    expect(made(now)).toBeGreaterThan(0);
+    expect(madeAt(now)).not.toEqual(madeAt(was));
     // The Outlook sheet is the new run's (stamped at its time); the pictures of the kept sheets are theirs still.
     expect(sheet(now, "Fairlead Outlook").getCell("B9").value).not.toEqual(sheet(was, "Fairlead Outlook").getCell("B9").value);
     const pictures = (wb: ExcelJS.Workbook, name: string): string[] =>
@@ -404,7 +410,7 @@ describe("run after a publish", () => {
         .getImages()
         .map((im) => crypto.createHash("sha256").update((wb.model.media[Number(im.imageId)] as unknown as { buffer: Buffer }).buffer).digest("hex"));
     expect(pictures(now, PUBLISHED_SHEET)).toEqual(pictures(was, PUBLISHED_SHEET));
-    expect(pictures(now, TRACK_SHEET)).toEqual(pictures(was, TRACK_SHEET));
+    expect(pictures(now, TRACK_SHEET)).toHaveLength(pictures(was, TRACK_SHEET).length);
     // The old outlook pictures are dropped, not carried along: as many images as before.
     expect(now.model.media.length).toBe(was.model.media.length);
   });

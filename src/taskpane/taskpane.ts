@@ -311,13 +311,18 @@ function progress(fraction: number, sentence: string): void {
   setText("progress-text", `${Math.floor(fraction * 100)}% · ${sentence}`);
 }
 
-function showRunError(message: string, adoptable: string[] = []): void {
-  const box = byId("run-error");
+/** Shows a refusal in `boxId`, with its "Rewrite them" button when sheets could be adopted. */
+function showRefusal(boxId: string, adoptId: string, message: string, adoptable: string[]): void {
+  const box = byId(boxId);
   box.textContent = message;
   box.hidden = false;
-  const adopt = byId<HTMLButtonElement>("adopt");
+  const adopt = byId<HTMLButtonElement>(adoptId);
   adopt.hidden = adoptable.length === 0;
   adopt.dataset.sheets = JSON.stringify(adoptable);
+}
+
+function showRunError(message: string, adoptable: string[] = []): void {
+  showRefusal("run-error", "adopt", message, adoptable);
 }
 
 function showOutcome(outcome: RunOutcome, refreshed: boolean): void {
@@ -407,12 +412,7 @@ function showPublishReady(): void {
 }
 
 function showPublishError(message: string, adoptable: string[] = []): void {
-  const box = byId("publish-error");
-  box.textContent = message;
-  box.hidden = false;
-  const adopt = byId<HTMLButtonElement>("publish-adopt");
-  adopt.hidden = adoptable.length === 0;
-  adopt.dataset.sheets = JSON.stringify(adoptable);
+  showRefusal("publish-error", "publish-adopt", message, adoptable);
 }
 
 async function onPublish(adopt?: string[]): Promise<void> {

@@ -8,7 +8,7 @@ import { addWeeks, isoDate } from "./series/calendar";
 import { InputError } from "./series/errors";
 import type { WeeklySeries } from "./series/types";
 import { WEEKDAY_NAMES } from "./series/wording";
-import { getModel } from "./models/registry";
+import { PLAIN_SUFFIX, getModel, isPlainKey, plainKey } from "./models/registry";
 import type { SearchedStructure } from "./models/types";
 import { modePhrase } from "./evaluate/backtest";
 import { DEFAULT_TEST_WEEKS, type BacktestOptions } from "./evaluate/plan";
@@ -265,6 +265,14 @@ export function backtestOptionsFor(series: WeeklySeries, opts: ResolvedOptions):
   }
   const withCalendar = calendarOptions(series, opts, "sarima");
   const methodOptions = withCalendar ? { ...asked.methodOptions, sarima: { ...asked.methodOptions?.sarima, ...withCalendar } } : asked.methodOptions;
+  // With the calendar on, SARIMA is also scored without it, so the backtest shows what the
+  // regressors buy (and "auto" may choose either); its options are SARIMA's less the calendar.
+  if (withCalendar && methods.includes("sarima") && !methods.includes(plainKey("sarima"))) {
+    const at = methods.indexOf("sarima") + 1;
+    methods = [...methods.slice(0, at), plainKey("sarima"), ...methods.slice(at)];
+    const plain = asked.methodOptions?.sarima;
+    if (plain && methodOptions) methodOptions[plainKey("sarima")] = plain;
+  }
   return { ...asked, methods, levels: asked.levels ?? opts.levels, ...(methodOptions ? { methodOptions } : {}) };
 }
 
@@ -328,7 +336,9 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
   const fitted = model.fit(series.values, fitOptionsFor(series, opts, code, comboMembers));
   const calendarNote = !opts.calendar.lunarNewYear || CALENDAR_METHODS.has(code)
     ? []
-    : code === "combo"
+    : isPlainKey(code)
+      ? [`The backtest scored ${getModel(code.slice(0, -PLAIN_SUFFIX.length)).label} better without the lunar-new-year regressors, so the outlook is fitted without them.`]
+      : code === "combo"
       ? ["Lunar-new-year effects are used by SARIMA only so far: in the combination, its SARIMA member takes them."]
       : [`Lunar-new-year effects are used by SARIMA only so far; ${model.label} was fitted without them.`];
   const fc = fitted.forecast(opts.horizon, opts.levels);

@@ -1,7 +1,7 @@
 /**
  * The checks that justify a model, run together for analyse(): stationarity (ADF, PP, KPSS
  * on levels, logs and weekly changes, with the order of integration), seasonality (STL
- * strength and ISO-week factors), nonlinearity (on the series made stationary as the
+ * strength, ISO-week factors and factors around the lunar new year), nonlinearity (on the series made stationary as the
  * stationarity checks conclude), and the chosen model's residuals. A check that the data
  * cannot support (too short, constant) is skipped with its sentence; the others still run.
  */
@@ -18,6 +18,8 @@ export interface CheckTables {
   integration?: ReportTable;
   seasonStrength?: ReportTable;
   weekFactors?: ReportTable;
+  /** Factors counted from the lunar new year, beside the ISO-week ones of the same weeks. */
+  holidayFactors?: ReportTable;
   /** Mean rate by ISO week (rows) and ISO year (columns): the season's picture (radar chart). */
   weekYear?: ReportTable;
   nonlinearity?: ReportTable;
@@ -79,7 +81,7 @@ export function runChecks(series: WeeklySeries, model?: ModelResiduals, settings
   let adjusted: Float64Array | null = null;
   attempt("Seasonality checks", skipped, () => {
     const s = seasonalityAnalysis(series, settings.seasonKind ? { kind: settings.seasonKind } : {});
-    [tables.seasonStrength, tables.weekFactors] = s.tables;
+    [tables.seasonStrength, tables.weekFactors, tables.holidayFactors] = s.tables;
     if (s.seasonalReal) adjusted = s.adjusted;
     if (series.dates.length === y.length) tables.weekYear = weekYearTable(series);
   });

@@ -3,6 +3,7 @@
  * analyst understands for every option that cannot be honoured.
  */
 import { InputError } from "../series/errors";
+import { PLAIN_SUFFIX } from "../models/types";
 import type { BacktestPlan, ModelLookup, RefitMode, WindowSpan } from "./backtest";
 
 export interface BacktestOptions {
@@ -61,7 +62,8 @@ export function planBacktest(n: number, options: BacktestOptions, lookup: ModelL
   if (asked.includes("auto")) throw bad('"auto" is chosen by a backtest, so it cannot be one of the methods a backtest compares.');
   const wantCombo = asked.includes("combo");
   const fitted = asked.filter((m) => m !== "combo");
-  const members = wantCombo ? (options.comboMembers ?? fitted.filter((m) => !BASELINES.has(m))).map((m) => m.toLowerCase()) : [];
+  // The combination averages the models, not the baselines nor a model's calendar-free twin.
+  const members = wantCombo ? (options.comboMembers ?? fitted.filter((m) => !BASELINES.has(m) && !m.endsWith(PLAIN_SUFFIX))).map((m) => m.toLowerCase()) : [];
   if (wantCombo && members.length < 2) {
     throw bad("A combination in a backtest needs at least two methods to average; list them as its members or among the methods.");
   }

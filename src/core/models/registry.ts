@@ -9,7 +9,7 @@ import { drift, lastWeek, lastYear } from "./naive";
 import { nnar } from "./nnar";
 import { sarima } from "./sarima";
 import { tbats } from "./tbats";
-import type { MethodCode, ModelSpec } from "./types";
+import { PLAIN_SUFFIX, type MethodCode, type ModelSpec } from "./types";
 
 const MODELS: Partial<Record<MethodCode, ModelSpec>> = {
   lastweek: lastWeek,
@@ -26,7 +26,33 @@ export function availableMethods(): MethodCode[] {
   return Object.keys(MODELS) as MethodCode[];
 }
 
+/**
+ * A backtest compares a method taking calendar regressors with the same method without them
+ * under the key "<code>:plain" (analysis.ts adds it when the calendar is on): the same model,
+ * fitted with no calendar options, labelled so the tables tell the two apart.
+ */
+export { PLAIN_SUFFIX };
+const plainVariants = new Map<string, ModelSpec>();
+
+export function plainKey(code: string): string {
+  return `${code}${PLAIN_SUFFIX}`;
+}
+
+export function isPlainKey(code: string): boolean {
+  return code.trim().toLowerCase().endsWith(PLAIN_SUFFIX);
+}
+
 export function getModel(code: string): ModelSpec {
+  if (isPlainKey(code)) {
+    const base = code.trim().toLowerCase().slice(0, -PLAIN_SUFFIX.length);
+    let spec = plainVariants.get(base);
+    if (!spec) {
+      const model = getModel(base);
+      spec = { ...model, label: `${model.label} without calendar effects` };
+      plainVariants.set(base, spec);
+    }
+    return spec;
+  }
   const key = code.trim().toLowerCase() as MethodCode;
   const model = MODELS[key];
   if (!model) {

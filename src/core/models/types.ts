@@ -5,6 +5,12 @@
 import type { Rng } from "../math/rng";
 import type { ReportTable } from "../report";
 
+/**
+ * The key a backtest scores a calendar-taking method under without its calendar regressors:
+ * "<code>:plain" (registry.ts resolves it; analysis.ts adds it when the calendar is on).
+ */
+export const PLAIN_SUFFIX = ":plain";
+
 /** Method codes from the DESIGN.md vocabulary. */
 export type MethodCode = "tbats" | "sarima" | "nnar" | "lastyear" | "lastweek" | "drift" | "combo" | "auto";
 

@@ -8,6 +8,7 @@ import { InputError } from "../../series/errors";
 import type { WeeklySeries } from "../../series/types";
 import type { FactorKind } from "./factors";
 import { logRates, weekFactorsFrom } from "./factors";
+import { holidayFactors } from "./holidayFactors";
 import type { StlOptions } from "./stl";
 import { stl } from "./stl";
 import { noiseBaseline, stlStrength, strengthTable } from "./strength";
@@ -18,6 +19,7 @@ export { DEFAULT_SEASONAL_WINDOW, robustnessWeights, smallestOddAtLeast, stl, st
 export type { Components, StrengthResult } from "./strength";
 export { BASELINE_REPLICATIONS, STRONG_STRENGTH, WEAK_STRENGTH, clearNoiseBaselineCache, noiseBaseline, stlStrength, strengthTable } from "./strength";
 export type { FactorKind, WeekFactorOptions, WeekFactors } from "./factors";
+export { HOLIDAY_WEEKS, holidayFactors, type HolidayFactors } from "./holidayFactors";
 export { factorTable, factorsFromSeasonal, logRates, weekFactors, weekFactorsFrom } from "./factors";
 export type { WeekBin } from "./weekYear";
 export { decompositionTable } from "./decomposition";
@@ -88,6 +90,7 @@ export function seasonalityAnalysis(series: WeeklySeries, options: StlOptions & 
       ? []
       : ["The seasonal strength is no higher than white noise would show: read these factors as noise, not as an annual pattern."];
     tables.push(weekFactorsFrom(series.dates, decomposition, kind, caveat).table);
+    tables.push(holidayFactors(series.dates, decomposition, kind).table);
   }
   const adjusted = new Float64Array(n);
   for (let t = 0; t < n; t++) {

@@ -10,6 +10,7 @@ import { MersenneTwister } from "../../../../src/core/math/rng";
 import { lunarOffset } from "../../../../src/core/series/lunarRegressors";
 import { lunarNewYear } from "../../../../src/core/series/lunar";
 import type { Fitted } from "../../../../src/core/models/types";
+import { planBacktest } from "../../../../src/core/evaluate/plan";
 import { analyse } from "../../../../src/core/analysis";
 
 const START = "2014-01-03"; // a Friday
@@ -143,6 +144,38 @@ describe("analyse() with calendar: { lunarNewYear }", () => {
       return rows.reduce((a, x) => a + Number(x[c]), 0) / rows.length;
     };
     expect(mase(withCal)).toBeLessThan(mase(without));
+  });
+
+  test("one backtest scores SARIMA with and without the holiday weeks side by side, and auto takes the better", () => {
+    const bt = { methods: ["sarima", "lastweek"], testWeeks: 20, horizon: 4, modes: ["fixed" as const], methodOptions: { sarima: FIXED } };
+    const r = analyse(series, { method: "auto", horizon: 8, checks: false, calendar: { lunarNewYear: true }, backtest: bt });
+    const t = r.tables.backtest;
+    if (!t) throw new Error("no backtest");
+    const col = (c: string): number => t.columns.indexOf(c);
+    const mase = (label: string): number => {
+      const rows = t.rows.filter((x) => x[col("Method")] === label);
+      expect(rows).toHaveLength(4);
+      return rows.reduce((a, x) => a + Number(x[col("MASE")]), 0) / rows.length;
+    };
+    // The simulated holiday dip is there to find: the regressors make the holiday weeks forecastable.
+    expect(mase("Seasonal ARIMA")).toBeLessThan(mase("Seasonal ARIMA without calendar effects"));
+    expect(r.model.method).toBe("sarima");
+  });
+
+  test("a backtest's combination averages the models, not SARIMA's calendar-free twin", () => {
+    const plan = planBacktest(n, { methods: ["sarima", "sarima:plain", "tbats", "lastweek", "combo"], testWeeks: 8, horizon: 2 }, getModel);
+    expect(plan.combos).toEqual([{ code: "combo", members: ["sarima", "tbats"] }]);
+  });
+
+  test("when the backtest scores SARIMA better without the holiday weeks, the outlook is fitted without them and says so", () => {
+    const flat = simulate(32, n, false);
+    const plain = { ...series, values: flat };
+    const bt = { methods: ["sarima:plain"], testWeeks: 8, horizon: 2, modes: ["fixed" as const], methodOptions: { "sarima:plain": FIXED } };
+    const r = analyse(plain, { method: "auto", horizon: 4, checks: false, calendar: { lunarNewYear: true }, backtest: bt });
+    expect(r.model.method).toBe("sarima:plain");
+    expect(r.model.label).toBe("Seasonal ARIMA without calendar effects");
+    expect(r.tables.fit.rows.map((x) => x[0])).not.toContain("Lunar new year week");
+    expect(r.warnings.join(" ")).toContain("The backtest scored Seasonal ARIMA better without the lunar-new-year regressors, so the outlook is fitted without them.");
   });
 
   test("other methods say they ignore it; an undated series is refused", () => {

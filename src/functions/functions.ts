@@ -27,6 +27,7 @@ import {
   readDates,
   readDirection,
   readHeaders,
+  readLunar,
   readMethod,
   readMethods,
   readNumber,
@@ -48,6 +49,10 @@ async function analysed(rates: unknown, dates: unknown, options: AnalysisOptions
   if (!Array.isArray(rates)) throw new ArgumentError("#VALUE!", "The rates must be a range of cells, such as B2:B400.");
   const series = readWeekly(rates as unknown[][], { dates: readDates(dates) });
   // Weeks ahead, coverage and spans can only fail as numbers out of range: #NUM!.
+  // The one option check that is not a number out of range (asNumberProblem's premise).
+  if (options.calendar?.lunarNewYear && series.dates.length !== series.values.length) {
+    throw new ArgumentError("#VALUE!", "The lunar-new-year switch needs the week-ending dates beside the rates: give the dates argument as well.");
+  }
   asNumberProblem(() => resolveOptions(series, options));
   return functionsEngine().run("analyse", { series, options });
 }
@@ -88,6 +93,7 @@ export function outlookRows(t: ReportTable, headers = false): Array<Array<number
  * @param [coverage] Interval coverage in percent: one number such as 80, or a row or column of numbers such as {80,95}. If omitted: 80 and 95.
  * @param [dates] Week-ending dates beside the rates, one per rate cell, such as A2:A400. If omitted, the first column counts the weeks ahead (1, 2, 3 …).
  * @param [headers] Whether the first row of the result holds the column names, such as TRUE. If omitted: no header row.
+ * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
  * @returns One row per week ahead: week ending, forecast, then low and high per coverage level.
  */
 export async function outlook(
@@ -97,10 +103,11 @@ export async function outlook(
   coverage?: any[][],
   dates?: any[][],
   headers?: boolean,
+  lunar_new_year?: boolean,
 ): Promise<any[][]> {
   return guardedAsync(async () => {
     const horizon = readNumber(weeks, "Weeks ahead");
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon, levels: readCoverage(coverage), checks: false });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon, levels: readCoverage(coverage), checks: false, ...readLunar(lunar_new_year) });
     return outlookRows(report.tables.outlook, readHeaders(headers));
   });
 }
@@ -115,6 +122,7 @@ export async function outlook(
  * @param [coverage] Interval coverage in percent, such as 80 or {80,95}. If omitted: 80 and 95.
  * @param [dates] Week-ending dates beside the rates, such as A2:A400.
  * @param [headers] Whether the first row of the result holds the column names, such as TRUE. If omitted: no header row.
+ * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
  * @returns One row: the expected average, then low and high per coverage level.
  */
 export async function meanahead(
@@ -125,11 +133,12 @@ export async function meanahead(
   coverage?: any[][],
   dates?: any[][],
   headers?: boolean,
+  lunar_new_year?: boolean,
 ): Promise<any[][]> {
   return guardedAsync(async () => {
     const from = readNumber(from_week, "The first week ahead");
     const to = readNumber(to_week, "The last week ahead");
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, levels: readCoverage(coverage), checks: false, spans: [{ from, to }] });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, levels: readCoverage(coverage), checks: false, spans: [{ from, to }], ...readLunar(lunar_new_year) });
     const t = present(report.tables.meanAhead, "The average over those weeks");
     const cols = ["Average", ...t.columns.filter((c) => /^(Low|High) /.test(c))];
     return tableOut(t, readHeaders(headers), cols);
@@ -146,6 +155,7 @@ export async function meanahead(
  * @param [method] Method code as text, such as "tbats" (see OUTLOOK). If omitted: lastyear with two years of rates, otherwise lastweek.
  * @param [dates] Week-ending dates beside the rates, such as A2:A400.
  * @param [headers] Whether the first row of the result holds the column name, such as TRUE. If omitted: no header row.
+ * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
  * @returns The probability, between 0 and 1.
  */
 export async function chance(
@@ -156,10 +166,11 @@ export async function chance(
   method?: string,
   dates?: any[][],
   headers?: boolean,
+  lunar_new_year?: boolean,
 ): Promise<any[][]> {
   return guardedAsync(async () => {
     const threshold = { level: readNumber(level, "The level"), week: readNumber(week, "The week ahead"), direction: readDirection(direction) };
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, checks: false, thresholds: [threshold] });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, checks: false, thresholds: [threshold], ...readLunar(lunar_new_year) });
     return tableOut(present(report.tables.chance, "The chance"), readHeaders(headers), ["Probability"]);
   });
 }

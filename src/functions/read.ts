@@ -108,14 +108,24 @@ export function readRefit(v: unknown): RefitMode {
 }
 
 /** The header-row switch: TRUE, 1 or "yes" puts the column names on top; default no header. */
-export function readHeaders(v: unknown): boolean {
+/** A TRUE/FALSE argument (also 1/0, "yes"/"no"); omitted is FALSE. `what` names it in the error. */
+export function readSwitch(v: unknown, what: string): boolean {
   const x = single(v);
   if (omitted(x)) return false;
   if (typeof x === "boolean") return x;
   if (typeof x === "number") return x !== 0;
   if (typeof x === "string" && ["yes", "true"].includes(x.trim().toLowerCase())) return true;
   if (typeof x === "string" && ["no", "false"].includes(x.trim().toLowerCase())) return false;
-  throw new ArgumentError("#VALUE!", `The header switch is TRUE or FALSE; got ${describe(x)}.`);
+  throw new ArgumentError("#VALUE!", `${what} is TRUE or FALSE; got ${describe(x)}.`);
+}
+
+export function readHeaders(v: unknown): boolean {
+  return readSwitch(v, "The header switch");
+}
+
+/** The lunar-new-year switch as analyse() options (the analysis refuses it without dates). */
+export function readLunar(v: unknown): { calendar?: { lunarNewYear: true } } {
+  return readSwitch(v, "The lunar-new-year switch") ? { calendar: { lunarNewYear: true } } : {};
 }
 
 export function readDates(dates: unknown): unknown[][] | undefined {

@@ -18,6 +18,7 @@ import { table } from "../../src/core/report";
 import { EngineCancelled, EngineError } from "../../src/engine/errors";
 import { analyse } from "../../src/core/analysis";
 import { readWeekly } from "../../src/core/series/intake";
+import { lunarOffset } from "../../src/core/series/lunarRegressors";
 import { outlook, outlookRows, readCoverage } from "../../src/functions/functions";
 
 class FakeError {
@@ -178,6 +179,28 @@ describe("OUTLOOK", () => {
     const want = analyse(series, { method: "tbats", horizon: 4, checks: false }).tables.outlook.rows;
     expect(out.map((r) => r.slice(1))).toEqual(want.map((r) => r.slice(2)));
   });
+
+  it("with the lunar-new-year switch, SARIMA's outlook is analyse()'s with the calendar; without dates it is refused", async () => {
+    // Four years of an invented lane, weeks ending Friday from 2021-01-01, with a dip in the holiday's week.
+    const n = 4 * 52 + 10;
+    const start = Date.UTC(2021, 0, 1);
+    const weekDates = Array.from({ length: n }, (_, t) => new Date(start + t * 7 * 86_400_000));
+    const lane = weekDates.map((d, t) => [1500 + 3 * t + 40 * Math.sin(1.3 * t) - (lunarOffset(d) === 0 ? 180 : 0)]);
+    const serials = weekDates.map((d) => [(d.getTime() - Date.UTC(1899, 11, 30)) / 86_400_000]);
+    const out = await outlook(lane, 6, "sarima", OMITTED, serials, OMITTED, true);
+    const series = readWeekly(lane, { dates: serials });
+    const want = analyse(series, { method: "sarima", horizon: 6, checks: false, calendar: { lunarNewYear: true } });
+    expect(want.tables.fit.rows.map((r) => r[0])).toContain("Lunar new year week");
+    expect(out.map((r) => r.slice(1))).toEqual(want.tables.outlook.rows.map((r) => r.slice(2)));
+    const plain = await outlook(lane, 6, "sarima", OMITTED, serials, OMITTED, false);
+    expect(plain.map((r) => r[1])).not.toEqual(out.map((r) => r[1]));
+    const err = await excelErrorAsync(outlook(lane, 6, "sarima", OMITTED, OMITTED, OMITTED, true));
+    expect(err.code).toBe("#VALUE!");
+    expect(err.message).toBe("The lunar-new-year switch needs the week-ending dates beside the rates: give the dates argument as well.");
+    expect((await excelErrorAsync(outlook(lane, 6, "sarima", OMITTED, serials, OMITTED, "maybe" as unknown as boolean))).message).toBe(
+      'The lunar-new-year switch is TRUE or FALSE; got "maybe".',
+    );
+  }, 60_000);
 
   it("numbers the weeks ahead when no dates are given, and takes one coverage level", async () => {
     const out = await outlook(rates, 2, "lastweek", [[80]]);

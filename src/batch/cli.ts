@@ -35,6 +35,7 @@ const COMMON: Record<string, FlagSpec> = {
   backtest: { value: true, help: "off, or settings such as weeks=52,ahead=4,refit=every (refit: every, fixed or a number of weeks)" },
   choose: { value: true, help: "the measure auto chooses by: mase (default), mape, rmse or smape" },
   "lunar-new-year": { value: false, help: "add lunar-new-year regressors (used by SARIMA so far)" },
+  "event-weeks": { value: true, help: "weeks of events of your own as one regressor (SARIMA so far): dates YYYY-MM-DD, any day of each week, past and coming, separated by commas" },
   json: { value: false, help: "print JSON on stdout instead of the summary" },
   timing: { value: false, help: "include run times in the JSON (they differ from run to run)" },
   quiet: { value: false, help: "no progress on stderr" },
@@ -158,7 +159,9 @@ function analysisOptions(p: Parsed, base: AnalysisOptions): AnalysisOptions {
   o.backtest = bt;
   if (o.method === "auto" && bt === null) throw new UsageError("--method auto chooses by backtest; it cannot go with --backtest off. Name a method instead.");
   if (has(p, "no-checks")) o.checks = false;
-  if (has(p, "lunar-new-year")) o.calendar = { lunarNewYear: true };
+  if (has(p, "lunar-new-year")) o.calendar = { ...o.calendar, lunarNewYear: true };
+  const events = list(p, "event-weeks");
+  if (events) o.calendar = { ...o.calendar, events };
   return o;
 }
 

@@ -22,6 +22,7 @@ import { runChecks } from "./diagnostics/battery";
 import { decompositionTable } from "./diagnostics/seasonality/decomposition";
 import type { FactorKind } from "./diagnostics/seasonality/factors";
 import { checkWindow, type LunarWindow } from "./series/lunarRegressors";
+import { eventWeekEndings } from "./series/eventRegressors";
 import { checkSpans, checkThresholds, crossingChances, outlookPaths, spanAverages, type Span, type Threshold } from "./outlook/paths";
 import { chanceTable, meanAheadTable } from "./outlook/tables";
 
@@ -54,7 +55,15 @@ export interface AnalysisOptions {
    * and after the holiday (series/lunarRegressors.ts). Used by SARIMA, in the fit and in the
    * backtest; needs dates. Default: none.
    */
-  calendar?: { lunarNewYear?: boolean | Partial<LunarWindow> };
+  calendar?: {
+    lunarNewYear?: boolean | Partial<LunarWindow>;
+    /**
+     * Event weeks of the desk's own (dates written YYYY-MM-DD, any day of the week; past and
+     * future): one 0/1 regressor for SARIMA (series/eventRegressors.ts). Needs dates, and at
+     * least one listed week within the rates.
+     */
+    events?: string[];
+  };
   /**
    * The backtest sees only the first k weeks (the choice of "auto" with it). The pane's
    * refresh keeps its last full run's backtest this way, so a pasted week costs one fit, not a
@@ -77,7 +86,8 @@ export interface ResolvedOptions {
   thresholds: Threshold[];
   decompose: boolean;
   seasonKind: FactorKind | null;
-  calendar: { lunarNewYear: LunarWindow | null };
+  /** `events`: the listed weeks as week endings of the series' weeks, sorted (empty: none). */
+  calendar: { lunarNewYear: LunarWindow | null; events: string[] };
   /** Weeks the backtest sees when fewer than the series has (options.backtestThrough), else null. */
   backtestThrough: number | null;
 }
@@ -152,7 +162,7 @@ export function resolveOptions(series: WeeklySeries, options: AnalysisOptions = 
     thresholds,
     decompose: options.decompose ?? false,
     seasonKind: checkKind(options.seasonKind),
-    calendar: { lunarNewYear: lunarOption(series, options.calendar?.lunarNewYear) },
+    calendar: { lunarNewYear: lunarOption(series, options.calendar?.lunarNewYear), events: eventsOption(series, options.calendar?.events) },
     backtestThrough: throughOption(series, options.backtestThrough),
   };
 }
@@ -184,14 +194,42 @@ function lunarOption(series: WeeklySeries, v: boolean | Partial<LunarWindow> | u
   return checkWindow(v === true ? {} : v);
 }
 
+function eventsOption(series: WeeklySeries, v: string[] | undefined): string[] {
+  if (v === undefined || v.length === 0) return [];
+  const n = series.values.length;
+  if (series.dates.length !== n || n === 0) throw new InputError("BAD_OPTION", "Event weeks need the week-ending dates beside the rates.");
+  const weeks = eventWeekEndings(series.dates[0], v);
+  const first = isoDate(series.dates[0]);
+  const last = isoDate(series.dates[n - 1]);
+  if (!weeks.some((w) => w >= first && w <= last)) {
+    throw new InputError(
+      "BAD_OPTION",
+      `None of the event weeks falls within the rates (${first} to ${last}), so their effect cannot be estimated; list at least one past week.`,
+    );
+  }
+  return weeks;
+}
+
+/** Whether any calendar regressor is asked for. */
+export function hasCalendar(opts: ResolvedOptions): boolean {
+  return opts.calendar.lunarNewYear !== null || opts.calendar.events.length > 0;
+}
+
+/** The calendar regressors asked for, in words for notes: "Lunar-new-year effects", "Event weeks" or both. */
+function calendarWords(opts: ResolvedOptions): string {
+  const parts = [opts.calendar.lunarNewYear ? "Lunar-new-year effects" : null, opts.calendar.events.length > 0 ? "event weeks" : null].filter((x): x is string => x !== null);
+  const text = parts.join(" and ");
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
 /** Methods that take calendar regressors so far. */
 const CALENDAR_METHODS = new Set(["sarima"]);
 
 /** The fit options a method gets from the analysis options (calendar regressors for SARIMA). */
 function calendarOptions(series: WeeklySeries, opts: ResolvedOptions, code: string): Record<string, unknown> | undefined {
-  const w = opts.calendar.lunarNewYear;
-  if (!w || !CALENDAR_METHODS.has(code)) return undefined;
-  return { calendar: { start: isoDate(series.dates[0]), lunarNewYear: w } };
+  const { lunarNewYear, events } = opts.calendar;
+  if (!hasCalendar(opts) || !CALENDAR_METHODS.has(code)) return undefined;
+  return { calendar: { start: isoDate(series.dates[0]), ...(lunarNewYear ? { lunarNewYear } : {}), ...(events.length > 0 ? { events } : {}) } };
 }
 
 /** A method's fit options: the combination's members (as backtested) and, through it or directly, SARIMA's calendar. */
@@ -334,13 +372,13 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
   }
   const comboMembers = code === "combo" && bt ? opts.backtest?.comboMembers : undefined;
   const fitted = model.fit(series.values, fitOptionsFor(series, opts, code, comboMembers));
-  const calendarNote = !opts.calendar.lunarNewYear || CALENDAR_METHODS.has(code)
+  const calendarNote = !hasCalendar(opts) || CALENDAR_METHODS.has(code)
     ? []
     : isPlainKey(code)
-      ? [`The backtest scored ${getModel(code.slice(0, -PLAIN_SUFFIX.length)).label} better without the lunar-new-year regressors, so the outlook is fitted without them.`]
+      ? [`The backtest scored ${getModel(code.slice(0, -PLAIN_SUFFIX.length)).label} better without the ${calendarWords(opts).toLowerCase()} as regressors, so the outlook is fitted without them.`]
       : code === "combo"
-      ? ["Lunar-new-year effects are used by SARIMA only so far: in the combination, its SARIMA member takes them."]
-      : [`Lunar-new-year effects are used by SARIMA only so far; ${model.label} was fitted without them.`];
+      ? [`${calendarWords(opts)} are used by SARIMA only so far: in the combination, its SARIMA member takes them.`]
+      : [`${calendarWords(opts)} are used by SARIMA only so far; ${model.label} was fitted without them.`];
   const fc = fitted.forecast(opts.horizon, opts.levels);
   const dated = series.dates.length === n && n > 0;
   const last = dated ? series.dates[n - 1] : null;

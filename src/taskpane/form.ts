@@ -9,6 +9,7 @@ import { MAX_HORIZON } from "../core/analysis";
 import type { RefitMode } from "../core/evaluate/backtest";
 import { DEFAULT_BACKTEST_HORIZON, DEFAULT_TEST_WEEKS } from "../core/evaluate/plan";
 import { runDefaults } from "../core/present/defaults";
+import { parseIsoDateText } from "../core/series/excelDate";
 
 /** Methods offered, in the order the Method list shows them, with the words beside each. */
 export const METHOD_CHOICES: { code: string; label: string }[] = [
@@ -29,6 +30,8 @@ export interface PaneForm {
   horizon: string;
   coverage: string;
   lunarNewYear: boolean;
+  /** Event weeks of the desk's own: dates YYYY-MM-DD separated by commas, spaces or lines. */
+  eventWeeks: string;
   checks: boolean;
   seasonKind: "auto" | "multiplicative" | "additive";
   decompose: boolean;
@@ -83,6 +86,12 @@ export function parseCoverage(text: string): number[] | null {
   return [...new Set(levels)].sort((a, b) => a - b);
 }
 
+/** The event-week dates of the field, in the order typed; null when one is not a YYYY-MM-DD date. */
+export function parseEventWeeks(text: string): string[] | null {
+  const items = text.split(/[\s,;]+/).map((x) => x.trim()).filter((x) => x.length > 0);
+  return items.every((x) => parseIsoDateText(x) !== undefined) ? items : null;
+}
+
 /** The options for the form, or the problems to fix first. */
 export function optionsFromForm(form: PaneForm): { options: AnalysisOptions; problems: FormProblem[] } {
   const problems: FormProblem[] = [];
@@ -102,6 +111,12 @@ export function optionsFromForm(form: PaneForm): { options: AnalysisOptions; pro
   if (form.seasonKind !== "auto") options.seasonKind = form.seasonKind;
   if (form.decompose) options.decompose = true;
   if (form.lunarNewYear) options.calendar = { lunarNewYear: true };
+  const events = parseEventWeeks(form.eventWeeks);
+  if (events === null) {
+    problems.push({ field: "eventWeeks", message: "Event weeks: dates written YYYY-MM-DD (any day of each week), separated by commas, such as 2024-10-01, 2025-03-04." });
+  } else if (events.length > 0) {
+    options.calendar = { ...options.calendar, events };
+  }
 
   const backtestWanted = form.backtest || form.method === "auto";
   if (form.method === "auto" && !form.backtest) {
@@ -148,6 +163,7 @@ export function formFromOptions(options: AnalysisOptions): PaneForm {
     horizon: String(options.horizon ?? 12),
     coverage: (options.levels ?? [80, 95]).join(", "),
     lunarNewYear: Boolean(options.calendar?.lunarNewYear),
+    eventWeeks: (options.calendar?.events ?? []).join(", "),
     checks: options.checks !== false,
     seasonKind: options.seasonKind ?? "auto",
     decompose: options.decompose === true,

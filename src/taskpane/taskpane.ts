@@ -16,7 +16,7 @@ import type { SelectionBlocks } from "./excel/readSelection";
 import type { TableInfo } from "./excel/tables";
 import { watchSources, type Watch } from "./excel/watch";
 import { WriteRefused } from "./excel/writeSheets";
-import { defaultForm, formFromOptions, METHOD_CHOICES, optionsFromForm, type FormProblem, type PaneForm } from "./form";
+import { defaultForm, formFromOptions, METHOD_CHOICES, optionsFromForm, parseEventWeeks, type FormProblem, type PaneForm } from "./form";
 import { publishRun, PublishStopped } from "./publishFlow";
 import { RefreshScheduler } from "./refreshScheduler";
 import { runAnalysis, RunStopped, type RunOutcome } from "./runFlow";
@@ -105,6 +105,7 @@ const TEXT_FIELDS: [keyof PaneForm, string][] = [
   ["windows", "windows"],
   ["backtestHorizon", "backtest-horizon"],
   ["refitEvery", "refit-every"],
+  ["eventWeeks", "event-weeks"],
 ];
 const CHECK_FIELDS: [keyof PaneForm, string][] = [
   ["lunarNewYear", "lunar-new-year"],
@@ -138,7 +139,7 @@ function fillForm(f: PaneForm): void {
 function syncForm(): void {
   const f = readForm();
   const method = METHOD_CHOICES.find((m) => m.code === f.method)?.label ?? f.method;
-  setText("outlook-summary", `${method}; ${f.horizon} weeks; ${f.coverage}%${f.lunarNewYear ? "; lunar new year" : ""}`);
+  setText("outlook-summary", `${method}; ${f.horizon} weeks; ${f.coverage}%${f.lunarNewYear ? "; lunar new year" : ""}${eventCount(f) ? `; ${eventCount(f)} event week${eventCount(f) === 1 ? "" : "s"}` : ""}`);
   setText("season-summary", f.checks ? `factors by ISO week${f.seasonKind === "auto" ? "" : `, ${f.seasonKind}`}${f.decompose ? "; STL by week" : ""}` : "off (needs the checks)");
   setText("checks-summary", f.checks ? "on" : "off");
   const bt = f.backtest || f.method === "auto";
@@ -148,9 +149,14 @@ function syncForm(): void {
   show("refit-every-label", interval);
 }
 
+/** How many event-week dates the field holds (0 when empty or not readable yet). */
+function eventCount(f: PaneForm): number {
+  return parseEventWeeks(f.eventWeeks)?.length ?? 0;
+}
+
 function showProblems(problems: FormProblem[]): void {
   const fields = new Set(problems.map((p) => p.field));
-  for (const field of ["horizon", "coverage", "testWeeks", "windows", "backtestHorizon", "refitEvery", "backtest"] as const) {
+  for (const field of ["horizon", "coverage", "eventWeeks", "testWeeks", "windows", "backtestHorizon", "refitEvery", "backtest"] as const) {
     const box = document.getElementById(`${field}-problem`);
     if (!box) continue;
     const p = problems.find((x) => x.field === field);
@@ -162,6 +168,7 @@ function showProblems(problems: FormProblem[]): void {
   const sectionOf: Partial<Record<keyof PaneForm, string>> = {
     horizon: "outlook-section",
     coverage: "outlook-section",
+    eventWeeks: "outlook-section",
     method: "outlook-section",
     backtest: "backtest-section",
     testWeeks: "backtest-section",

@@ -110,6 +110,17 @@ describe("forecast --json", () => {
     expect(without.chosen).not.toMatch(/further regressors/);
   });
 
+  test("--event-weeks adds one regressor beside the holiday's; a week outside the rates is one sentence, exit 2", () => {
+    const s = laneSeries(200);
+    const week = (t: number): string => s.dates[t].toISOString().slice(0, 10);
+    const base = ["forecast", "--csv", "lane.csv", "--horizon", "2", "--method", "sarima", "--json", "--quiet", "--lunar-new-year"];
+    const both = JSON.parse(fairlead(...base, "--event-weeks", `${week(60)},${week(120)}`).stdout) as { chosen: string };
+    expect(both.chosen).toMatch(/\+ 6 further regressors$/);
+    const late = fairlead(...base, "--event-weeks", "2099-01-01");
+    expect(late.code).toBe(2);
+    expect(late.stderr).toBe(`fairlead: None of the event weeks falls within the rates (${week(0)} to ${week(199)}), so their effect cannot be estimated; list at least one past week.\n`);
+  });
+
   test("--coverage sets the levels and the bound keys", () => {
     const r = fairlead("forecast", "--csv", "lane.csv", "--horizon", "2", "--method", "lastweek", "--coverage", "50,90", "--json");
     expect(r.code).toBe(0);

@@ -92,7 +92,7 @@ describe("analyse()", () => {
 
   test("defaults: seasonal naive with two years of history, 12 weeks, 80 and 95", () => {
     const r = analyse(series);
-    expect(r.options).toEqual({ method: "lastyear", horizon: 12, levels: [80, 95], checks: true, backtest: null, choose: "mase", spans: [], thresholds: [], decompose: false, seasonKind: null, calendar: { lunarNewYear: null }, backtestThrough: null });
+    expect(r.options).toEqual({ method: "lastyear", horizon: 12, levels: [80, 95], checks: true, backtest: null, choose: "mase", spans: [], thresholds: [], decompose: false, seasonKind: null, calendar: { lunarNewYear: null, events: [] }, backtestThrough: null });
     expect(r.tables.outlook.rows).toHaveLength(12);
   });
 

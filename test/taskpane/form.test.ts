@@ -37,6 +37,7 @@ describe("the pane's form", () => {
   it.each<[string, Partial<PaneForm>]>([
     ["defaults", {}],
     ["SARIMA with the lunar new year, additive, STL", { method: "sarima", lunarNewYear: true, seasonKind: "additive", decompose: true }],
+    ["SARIMA with the lunar new year and two event weeks", { method: "sarima", lunarNewYear: true, eventWeeks: "2024-10-01, 2025-03-04" }],
     ["both refit modes over three windows", { refit: "both", windows: "3", testWeeks: "26", backtestHorizon: "8" }],
     ["re-estimation every 4 weeks", { refit: "interval", refitEvery: "4" }],
     ["no checks, 90% only, 26 weeks", { checks: false, coverage: "90", horizon: "26", method: "nnar", backtest: false }],
@@ -48,6 +49,16 @@ describe("the pane's form", () => {
     expect(optionsFromForm(back).options).toEqual(options);
     expect(back.method).toBe(f.method);
     expect(back.refit).toBe(f.refit);
+  });
+
+  it("reads event weeks separated by commas, spaces or lines, and names the field when one is not a date", () => {
+    const { options, problems } = optionsFromForm({ ...defaultForm(), eventWeeks: "2024-10-01,2025-03-04\n 2026-02-17" });
+    expect(problems).toEqual([]);
+    expect(options.calendar).toEqual({ events: ["2024-10-01", "2025-03-04", "2026-02-17"] });
+    expect(optionsFromForm({ ...defaultForm(), eventWeeks: "" }).options.calendar).toBeUndefined();
+    const bad = optionsFromForm({ ...defaultForm(), eventWeeks: "2024-10-01, 4 March" });
+    expect(bad.problems.map((p) => p.field)).toEqual(["eventWeeks"]);
+    expect(bad.problems[0].message).toMatch(/^Event weeks: dates written YYYY-MM-DD/);
   });
 
   it("maps the re-estimation choice to the backtest's modes", () => {

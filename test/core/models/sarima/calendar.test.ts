@@ -175,7 +175,7 @@ describe("analyse() with calendar: { lunarNewYear }", () => {
     expect(r.model.method).toBe("sarima:plain");
     expect(r.model.label).toBe("Seasonal ARIMA without calendar effects");
     expect(r.tables.fit.rows.map((x) => x[0])).not.toContain("Lunar new year week");
-    expect(r.warnings.join(" ")).toContain("The backtest scored Seasonal ARIMA better without the lunar-new-year regressors, so the outlook is fitted without them.");
+    expect(r.warnings.join(" ")).toContain("The backtest scored Seasonal ARIMA better without the lunar-new-year effects as regressors, so the outlook is fitted without them.");
   });
 
   test("other methods say they ignore it; an undated series is refused", () => {

@@ -247,6 +247,25 @@ describe("a first publish", () => {
   });
 });
 
+/** A placeholder in the expected rows: the MASE column, checked on its own. */
+const MASE_CHECKED = "MASE is checked on its own";
+
+let rates: Map<string, number>[] = [];
+/** Mean |y(w) − y(w − 364 days)| over the book's rate rows up to `origin`, for series k. */
+function rawScale(k: number, origin: string): number {
+  const byWeek = rates[k];
+  let sum = 0;
+  let count = 0;
+  for (const [week, y] of byWeek) {
+    if (week > origin) continue;
+    const before = byWeek.get(new Date(Date.parse(`${week}T00:00:00Z`) - 364 * 86_400_000).toISOString().slice(0, 10));
+    if (before === undefined) continue;
+    sum += Math.abs(y - before);
+    count++;
+  }
+  return sum / count;
+}
+
 describe("a second publish after two pasted weeks", () => {
   let before: string[];
   let after: ExcelJS.Workbook;
@@ -256,6 +275,18 @@ describe("a second publish after two pasted weeks", () => {
   beforeAll(async () => {
     fs.copyFileSync(path.join(dir, "first.xlsx"), path.join(dir, "weekly.xlsx"));
     await pasteWeeks("weekly.xlsx");
+    // The rates as the book holds them (sheet Rates: week ending, then the series' columns).
+    const ratesSheet = sheet(await book("weekly.xlsx"), "Rates");
+    rates = SERIES.map(() => new Map<string, number>());
+    ratesSheet.eachRow((row, r) => {
+      if (r === 1) return;
+      const week = row.getCell(1).value;
+      if (!(week instanceof Date)) return;
+      SERIES.forEach((_, k) => {
+        const v = row.getCell(k + 2).value;
+        if (typeof v === "number") rates[k].set(week.toISOString().slice(0, 10), v);
+      });
+    });
     before = snapshot(sheet(await book("weekly.xlsx"), LOG_SHEET));
     // The same publish twice, once for the JSON and once for the summary, into two copies.
     doc = JSON.parse(await ok(SECOND_AT, "publish", "weekly.xlsx", ...QUICK, "--no-charts", "--out", "second.xlsx", "--json")) as PublishDoc;
@@ -290,22 +321,32 @@ describe("a second publish after two pasted weeks", () => {
       });
       const mean = (xs: number[]): number => xs.reduce((a, b) => a + b, 0) / xs.length;
       const want: (number | string)[][] = [
-        ["lastweek", 1, 1, 1, scored[0].e, scored[0].ae, scored[0].ape, scored[0].in80, scored[0].in95],
-        ["lastweek", 2, 1, 1, scored[1].e, scored[1].ae, scored[1].ape, scored[1].in80, scored[1].in95],
+        ["lastweek", 1, 1, 1, scored[0].e, scored[0].ae, scored[0].ape, MASE_CHECKED, scored[0].in80, scored[0].in95],
+        ["lastweek", 2, 1, 1, scored[1].e, scored[1].ae, scored[1].ape, MASE_CHECKED, scored[1].in80, scored[1].in95],
         ["lastweek", 3, 0, 2],
         ["lastweek", 4, 0, 2],
-        ["lastweek", "All", 2, 6, mean(scored.map((s) => s.e)), mean(scored.map((s) => s.ae)), mean(scored.map((s) => s.ape)), mean(scored.map((s) => s.in80)), mean(scored.map((s) => s.in95))],
+        ["lastweek", "All", 2, 6, mean(scored.map((s) => s.e)), mean(scored.map((s) => s.ae)), mean(scored.map((s) => s.ape)), MASE_CHECKED, mean(scored.map((s) => s.in80)), mean(scored.map((s) => s.in95))],
       ];
       const got = tableAt(ws, name, "Track record by method and weeks ahead");
-      expect(got.columns).toEqual(["Method", "Weeks ahead", "Forecasts scored", "Awaiting actuals", "Mean error", "Mean absolute error", "MAPE %", "Inside 80% interval (%)", "Inside 95% interval (%)"]);
+      expect(got.columns).toEqual(["Method", "Weeks ahead", "Forecasts scored", "Awaiting actuals", "Mean error", "Mean absolute error", "MAPE %", "MASE", "Inside 80% interval (%)", "Inside 95% interval (%)"]);
       const json = doc.publish.track.find((t) => t.series === name);
       expect(json).toMatchObject({ scored: 2, awaiting: 6 });
       expect(got.rows).toHaveLength(want.length);
+      // MASE: both scored forecasts share the origin 2026-11-27, so one scale s divides every
+      // MAE; s is the mean |y_t − y_{t−52 weeks}| of the rates up to the origin (the backtest's
+      // scale), which the book's own rates give within 1% (the intake fills three blank cells
+      // and one missing week that this by-date sum skips).
+      const m = got.columns.indexOf("MASE");
+      const s = (got.rows[0][5] as number) / (got.rows[0][m] as number);
+      for (const i of [1, 4]) expect(Math.abs((got.rows[i][m] as number) - (got.rows[i][5] as number) / s)).toBeLessThanOrEqual(1e-12 * s);
+      expect(Math.abs(s / rawScale(k, "2026-11-27") - 1)).toBeLessThan(0.01);
       want.forEach((w, i) => {
         for (let j = 0; j < got.columns.length; j++) {
           const sheetCell = got.rows[i][j];
           const jsonCell = json?.summary.rows[i][j] ?? null;
-          if (j >= w.length) {
+          if (w[j] === MASE_CHECKED) {
+            expect(jsonCell).toBe(sheetCell);
+          } else if (j >= w.length) {
             expect(sheetCell).toBeNull();
             expect(jsonCell).toBeNull();
           } else if (typeof w[j] === "number" && j >= 4) {

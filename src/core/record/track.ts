@@ -14,6 +14,7 @@ import { isoDate } from "../series/calendar";
 import type { LineChartSpec } from "../present/chartSpec";
 import type { AnalysedSeries } from "../present/sheets";
 import { seriesKey } from "../present/names";
+import { maseScale } from "../evaluate/metrics";
 import type { LogEntry } from "./log";
 
 /** The observed rates of one series by week ending (weeks the intake filled are not observations). */
@@ -21,6 +22,30 @@ export interface SeriesActuals {
   byWeek: Map<string, number>;
   /** The last week of data, or null when none is dated. */
   last: string | null;
+  /**
+   * The MASE scale at an origin week: the mean absolute error of the same week a year earlier
+   * over the weeks up to it (of last week's rate with under two years), as the backtest scales
+   * (evaluate/metrics.ts); null when it cannot be formed. Absent: no MASE.
+   */
+  scaleAt?: (origin: string) => number | null;
+}
+
+/** The scale function of a dated series: the backtest's MASE scale (maseScale) over the weeks up to the origin. */
+function scaleOf(weeks: string[], values: Float64Array): (origin: string) => number | null {
+  const cache = new Map<string, number | null>();
+  return (origin) => {
+    const hit = cache.get(origin);
+    if (hit !== undefined) return hit;
+    let end = weeks.length - 1;
+    while (end >= 0 && weeks[end] > origin) end--;
+    let scale: number | null = null;
+    if (end >= 1) {
+      const s = maseScale(values.subarray(0, end + 1)).scale;
+      scale = Number.isFinite(s) && s > 0 ? s : null;
+    }
+    cache.set(origin, scale);
+    return scale;
+  };
 }
 
 export function actualsOf(analysed: AnalysedSeries[]): Map<string, SeriesActuals> {
@@ -30,8 +55,9 @@ export function actualsOf(analysed: AnalysedSeries[]): Map<string, SeriesActuals
     const n = s.values.length;
     if (s.dates.length !== n || n === 0) continue;
     const byWeek = new Map<string, number>();
-    for (let i = 0; i < n; i++) if (!s.filled[i] && Number.isFinite(s.values[i])) byWeek.set(isoDate(s.dates[i]), s.values[i]);
-    out.set(a.name, { byWeek, last: isoDate(s.dates[n - 1]) });
+    const weeks = s.dates.map(isoDate);
+    for (let i = 0; i < n; i++) if (!s.filled[i] && Number.isFinite(s.values[i])) byWeek.set(weeks[i], s.values[i]);
+    out.set(a.name, { byWeek, last: weeks[n - 1], scaleAt: scaleOf(weeks, s.values) });
   }
   return out;
 }
@@ -42,6 +68,8 @@ export interface Scored {
   actual: number | null;
   error: number | null;
   errorPct: number | null;
+  /** |error| over the MASE scale at the entry's origin, or null. */
+  scaledError: number | null;
   insideInner: boolean | null;
   insideOuter: boolean | null;
 }
@@ -72,13 +100,15 @@ function inside(band: LogEntry["inner"], y: number): boolean | null {
 
 export function scoreEntry(entry: LogEntry, actuals: SeriesActuals | undefined): Scored {
   const y = actuals?.byWeek.get(entry.target);
-  if (y === undefined) return { entry, actual: null, error: null, errorPct: null, insideInner: null, insideOuter: null };
+  if (y === undefined) return { entry, actual: null, error: null, errorPct: null, scaledError: null, insideInner: null, insideOuter: null };
   const error = y - entry.point;
+  const scale = actuals?.scaleAt?.(entry.origin) ?? null;
   return {
     entry,
     actual: y,
     error,
     errorPct: y !== 0 ? (100 * error) / y : null,
+    scaledError: scale !== null ? Math.abs(error) / scale : null,
     insideInner: inside(entry.inner, y),
     insideOuter: inside(entry.outer, y),
   };
@@ -125,6 +155,7 @@ function summaryRow(method: string, ahead: Cell, group: Scored[]): Cell[] {
     mean(done.map((s) => s.error as number)),
     mean(done.map((s) => Math.abs(s.error as number))),
     mean(done.filter((s) => s.errorPct !== null).map((s) => Math.abs(s.errorPct as number))),
+    mean(done.filter((s) => s.scaledError !== null).map((s) => s.scaledError as number)),
     share(done.map((s) => s.insideInner)),
     share(done.map((s) => s.insideOuter)),
   ];
@@ -161,10 +192,11 @@ function seriesRecord(name: string, entries: LogEntry[], actuals: SeriesActuals 
   const last = actuals?.last ?? null;
   const summary: ReportTable = {
     title: "Track record by method and weeks ahead",
-    columns: ["Method", "Weeks ahead", "Forecasts scored", "Awaiting actuals", "Mean error", "Mean absolute error", "MAPE %", `${inner} (%)`, `${outer} (%)`],
+    columns: ["Method", "Weeks ahead", "Forecasts scored", "Awaiting actuals", "Mean error", "Mean absolute error", "MAPE %", "MASE", `${inner} (%)`, `${outer} (%)`],
     rows,
     notes: [
       `Logged forecasts against the rates that followed${last ? `, through week ending ${last}` : ""}. Error is actual minus forecast: a positive mean error means the forecasts ran low.`,
+      "MASE scales each error by the mean error of the same week a year earlier over the weeks up to its origin (last week's rate with under two years), as the backtest does: below 1 beats that benchmark.",
       "An interval's hit rate should come near its coverage over many weeks; a few dozen forecasts say little either way. Weeks the intake filled are not outcomes and stay awaiting.",
     ],
   };

@@ -27,7 +27,8 @@ const LOG: LogEntry[] = [
 
 // The two weeks pasted after the first publish: 104 and 90.
 const ACTUALS = new Map<string, SeriesActuals>([
-  [LANE, { byWeek: new Map([["2026-11-27", 98], ["2026-12-04", 104], ["2026-12-11", 90]]), last: "2026-12-11" }],
+  // A MASE scale of 8 at every origin (the same-week-a-year-earlier error; set by hand here).
+  [LANE, { byWeek: new Map([["2026-11-27", 98], ["2026-12-04", 104], ["2026-12-11", 90]]), last: "2026-12-11", scaleAt: () => 8 }],
 ]);
 
 describe("track record after two pasted weeks", () => {
@@ -37,7 +38,7 @@ describe("track record after two pasted weeks", () => {
 
   test("by weeks ahead: counts, mean error, MAE, MAPE and hit rates match the hand computation", () => {
     expect(record.series).toHaveLength(1);
-    expect(s.summary.columns).toEqual(["Method", "Weeks ahead", "Forecasts scored", "Awaiting actuals", "Mean error", "Mean absolute error", "MAPE %", "Inside 80% interval (%)", "Inside 95% interval (%)"]);
+    expect(s.summary.columns).toEqual(["Method", "Weeks ahead", "Forecasts scored", "Awaiting actuals", "Mean error", "Mean absolute error", "MAPE %", "MASE", "Inside 80% interval (%)", "Inside 95% interval (%)"]);
     // 1 week ahead: 12-04 104−100 = +4 (inside 95–105 and 90–110); 12-11 90−95 = −5 (outside 91–99, inside 89–101).
     // Mean error (4 − 5)/2 = −0.5; MAE 4.5; MAPE (4/104 + 5/90)/2·100 = (3.8462 + 5.5556)/2 = 4.7009; hits 1/2, 2/2.
     const h1 = row(1);
@@ -46,25 +47,30 @@ describe("track record after two pasted weeks", () => {
     expect(h1[5]).toBeCloseTo(4.5, 12);
     expect(h1[6]).toBeCloseTo(((4 / 104 + 5 / 90) / 2) * 100, 10);
     expect(h1[6]).toBeCloseTo(4.7009, 4);
-    expect(h1[7]).toBe(50);
-    expect(h1[8]).toBe(100);
+    // MASE (4/8 + 5/8)/2 = 0.5625.
+    expect(h1[7]).toBeCloseTo(0.5625, 12);
+    expect(h1[8]).toBe(50);
+    expect(h1[9]).toBe(100);
     // 2 weeks ahead: 12-11 90−102 = −12 (outside 94–110, inside 88–116); 12-18 not arrived.
     const h2 = row(2);
     expect(h2.slice(0, 4)).toEqual(["tbats", 2, 1, 1]);
     expect(h2[4]).toBe(-12);
     expect(h2[5]).toBe(12);
     expect(h2[6]).toBeCloseTo((12 / 90) * 100, 10);
-    expect(h2[7]).toBe(0);
-    expect(h2[8]).toBe(100);
+    expect(h2[7]).toBeCloseTo(12 / 8, 12);
+    expect(h2[8]).toBe(0);
+    expect(h2[9]).toBe(100);
     // 3 weeks ahead: nothing scored yet, one awaiting; means are blank, not zero.
-    expect(row(3)).toEqual(["tbats", 3, 0, 1, null, null, null, null, null]);
+    expect(row(3)).toEqual(["tbats", 3, 0, 1, null, null, null, null, null, null]);
     // All: errors +4, −5, −12 → mean −13/3, MAE 21/3 = 7; hits 1/3 and 3/3.
     const all = row("All");
     expect(all.slice(0, 4)).toEqual(["tbats", "All", 3, 2]);
     expect(all[4]).toBeCloseTo(-13 / 3, 12);
     expect(all[5]).toBeCloseTo(7, 12);
-    expect(all[7]).toBeCloseTo(100 / 3, 10);
-    expect(all[8]).toBe(100);
+    // MASE 21/3/8 = 0.875.
+    expect(all[7]).toBeCloseTo(0.875, 12);
+    expect(all[8]).toBeCloseTo(100 / 3, 10);
+    expect(all[9]).toBe(100);
     expect(s.scoredCount).toBe(3);
     expect(s.awaiting).toBe(2);
   });
@@ -95,6 +101,20 @@ describe("track record after two pasted weeks", () => {
     expect(r.unread).toEqual(["Halden–Corvane FEU"]);
     // 1 week ahead now: +1 (104−103) and −5 → mean −2.
     expect(r.series[0].summary.rows.find((x) => x[1] === 1)?.[4]).toBeCloseTo(-2, 12);
+  });
+
+  test("the MASE scale is the backtest's: last week's rate under two years, the same week a year earlier after", () => {
+    const straight = (n: number, slope: number) => {
+      const s = laneSeries(n);
+      return { ...s, values: Float64Array.from({ length: n }, (_, t) => 100 + slope * t) };
+    };
+    const run = analyse(laneSeries(60), { method: "lastweek", horizon: 1, checks: false });
+    // 60 weeks rising by 2: every week-on-week change is 2, so the scale is 2.
+    const short = actualsOf([{ name: LANE, series: straight(60, 2), report: run }]).get(LANE) as SeriesActuals;
+    expect(short.scaleAt?.(short.last as string)).toBeCloseTo(2, 12);
+    // 120 weeks rising by 1: the same week a year earlier is 52 lower, so the scale is 52.
+    const long = actualsOf([{ name: LANE, series: straight(120, 1), report: run }]).get(LANE) as SeriesActuals;
+    expect(long.scaleAt?.(long.last as string)).toBeCloseTo(52, 12);
   });
 
   test("actuals are the observed weeks only: a week the intake filled is not an outcome", () => {

@@ -16,6 +16,7 @@
 import type { AnalysisOptions, Report } from "../core/analysis";
 import { resolveOptions } from "../core/analysis";
 import { readWeekly } from "../core/series/intake";
+import { InputError } from "../core/series/errors";
 import type { ReportTable } from "../core/report";
 import { ArgumentError, asNumberProblem, guardedAsync } from "./errors";
 import { functionsEngine } from "./engine";
@@ -27,7 +28,7 @@ import {
   readDates,
   readDirection,
   readHeaders,
-  readLunar,
+  readCalendar,
   readMethod,
   readMethods,
   readNumber,
@@ -53,7 +54,20 @@ async function analysed(rates: unknown, dates: unknown, options: AnalysisOptions
   if (options.calendar?.lunarNewYear && series.dates.length !== series.values.length) {
     throw new ArgumentError("#VALUE!", "The lunar-new-year switch needs the week-ending dates beside the rates: give the dates argument as well.");
   }
-  asNumberProblem(() => resolveOptions(series, options));
+  if (options.calendar?.events && series.dates.length !== series.values.length) {
+    throw new ArgumentError("#VALUE!", "Event weeks need the week-ending dates beside the rates: give the dates argument as well.");
+  }
+  const { calendar, ...plain } = options;
+  asNumberProblem(() => resolveOptions(series, plain));
+  if (calendar) {
+    // What the calendar can fail on (no event week within the rates) is a wrong value, not a number out of range.
+    try {
+      resolveOptions(series, options);
+    } catch (e) {
+      if (e instanceof InputError && e.code === "BAD_OPTION") throw new ArgumentError("#VALUE!", e.message);
+      throw e;
+    }
+  }
   return functionsEngine().run("analyse", { series, options });
 }
 
@@ -94,6 +108,7 @@ export function outlookRows(t: ReportTable, headers = false): Array<Array<number
  * @param [dates] Week-ending dates beside the rates, one per rate cell, such as A2:A400. If omitted, the first column counts the weeks ahead (1, 2, 3 …).
  * @param [headers] Whether the first row of the result holds the column names, such as TRUE. If omitted: no header row.
  * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
+ * @param [event_weeks] Weeks of events of your own (a strike, a closure), past or coming, as one regressor for SARIMA: a range of dates, any day of each week, such as H2:H9. Needs the dates. If omitted: none.
  * @returns One row per week ahead: week ending, forecast, then low and high per coverage level.
  */
 export async function outlook(
@@ -104,10 +119,11 @@ export async function outlook(
   dates?: any[][],
   headers?: boolean,
   lunar_new_year?: boolean,
+  event_weeks?: any[][],
 ): Promise<any[][]> {
   return guardedAsync(async () => {
     const horizon = readNumber(weeks, "Weeks ahead");
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon, levels: readCoverage(coverage), checks: false, ...readLunar(lunar_new_year) });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon, levels: readCoverage(coverage), checks: false, ...readCalendar(lunar_new_year, event_weeks) });
     return outlookRows(report.tables.outlook, readHeaders(headers));
   });
 }
@@ -123,6 +139,7 @@ export async function outlook(
  * @param [dates] Week-ending dates beside the rates, such as A2:A400.
  * @param [headers] Whether the first row of the result holds the column names, such as TRUE. If omitted: no header row.
  * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
+ * @param [event_weeks] Weeks of events of your own (a strike, a closure), past or coming, as one regressor for SARIMA: a range of dates, any day of each week, such as H2:H9. Needs the dates. If omitted: none.
  * @returns One row: the expected average, then low and high per coverage level.
  */
 export async function meanahead(
@@ -134,11 +151,12 @@ export async function meanahead(
   dates?: any[][],
   headers?: boolean,
   lunar_new_year?: boolean,
+  event_weeks?: any[][],
 ): Promise<any[][]> {
   return guardedAsync(async () => {
     const from = readNumber(from_week, "The first week ahead");
     const to = readNumber(to_week, "The last week ahead");
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, levels: readCoverage(coverage), checks: false, spans: [{ from, to }], ...readLunar(lunar_new_year) });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, levels: readCoverage(coverage), checks: false, spans: [{ from, to }], ...readCalendar(lunar_new_year, event_weeks) });
     const t = present(report.tables.meanAhead, "The average over those weeks");
     const cols = ["Average", ...t.columns.filter((c) => /^(Low|High) /.test(c))];
     return tableOut(t, readHeaders(headers), cols);
@@ -156,6 +174,7 @@ export async function meanahead(
  * @param [dates] Week-ending dates beside the rates, such as A2:A400.
  * @param [headers] Whether the first row of the result holds the column name, such as TRUE. If omitted: no header row.
  * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
+ * @param [event_weeks] Weeks of events of your own (a strike, a closure), past or coming, as one regressor for SARIMA: a range of dates, any day of each week, such as H2:H9. Needs the dates. If omitted: none.
  * @returns The probability, between 0 and 1.
  */
 export async function chance(
@@ -167,10 +186,11 @@ export async function chance(
   dates?: any[][],
   headers?: boolean,
   lunar_new_year?: boolean,
+  event_weeks?: any[][],
 ): Promise<any[][]> {
   return guardedAsync(async () => {
     const threshold = { level: readNumber(level, "The level"), week: readNumber(week, "The week ahead"), direction: readDirection(direction) };
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, checks: false, thresholds: [threshold], ...readLunar(lunar_new_year) });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, checks: false, thresholds: [threshold], ...readCalendar(lunar_new_year, event_weeks) });
     return tableOut(present(report.tables.chance, "The chance"), readHeaders(headers), ["Probability"]);
   });
 }

@@ -7,7 +7,8 @@
 import type { RefitMode } from "../core/evaluate/backtest";
 import type { Direction } from "../core/outlook/paths";
 import { isDateColumn, type Cell, type ReportTable } from "../core/report";
-import { dateToExcelSerial, parseIsoDateText } from "../core/series/excelDate";
+import { dateToExcelSerial, parseIsoDateText, readDateCell } from "../core/series/excelDate";
+import { isoDate } from "../core/series/calendar";
 import { ArgumentError, cellError } from "./errors";
 
 /** One cell of a returned array. */
@@ -126,6 +127,32 @@ export function readHeaders(v: unknown): boolean {
 /** The lunar-new-year switch as analyse() options (the analysis refuses it without dates). */
 export function readLunar(v: unknown): { calendar?: { lunarNewYear: true } } {
   return readSwitch(v, "The lunar-new-year switch") ? { calendar: { lunarNewYear: true } } : {};
+}
+
+/**
+ * Event weeks: a cell or range of dates (serials, or text YYYY-MM-DD), blanks skipped, as
+ * ISO dates in reading order; undefined when omitted or empty. A cell that is not a date is
+ * #VALUE! naming it.
+ */
+export function readEventWeeks(v: unknown): string[] | undefined {
+  if (omitted(v)) return undefined;
+  const cells = Array.isArray(v) ? (v as unknown[][]).flat() : [v];
+  const out: string[] = [];
+  cells.forEach((c, i) => {
+    if (omitted(c)) return;
+    const d = readDateCell(c);
+    if (d.kind !== "date") throw new ArgumentError("#VALUE!", `Event weeks are dates; cell ${i + 1} of them holds ${describe(c)}.`);
+    out.push(isoDate(d.date));
+  });
+  return out.length > 0 ? out : undefined;
+}
+
+/** The calendar options of the lunar-new-year switch and the event weeks together. */
+export function readCalendar(lunar: unknown, events: unknown): { calendar?: { lunarNewYear?: true; events?: string[] } } {
+  const l = readLunar(lunar).calendar;
+  const e = readEventWeeks(events);
+  if (!l && !e) return {};
+  return { calendar: { ...(l ?? {}), ...(e ? { events: e } : {}) } };
 }
 
 export function readDates(dates: unknown): unknown[][] | undefined {

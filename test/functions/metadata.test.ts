@@ -34,9 +34,9 @@ beforeAll(async () => {
 // Name: [parameter, optional, shape] in order. The shapes are the contract with the sheet:
 // ranges come as matrices, single values as scalars.
 const EXPECTED: Record<string, [string, boolean, "matrix" | "scalar"][]> = {
-  OUTLOOK: [["rates", false, "matrix"], ["weeks", false, "scalar"], ["method", true, "scalar"], ["coverage", true, "matrix"], ["dates", true, "matrix"], ["headers", true, "scalar"], ["lunar_new_year", true, "scalar"]],
-  MEANAHEAD: [["rates", false, "matrix"], ["from_week", false, "scalar"], ["to_week", false, "scalar"], ["method", true, "scalar"], ["coverage", true, "matrix"], ["dates", true, "matrix"], ["headers", true, "scalar"], ["lunar_new_year", true, "scalar"]],
-  CHANCE: [["rates", false, "matrix"], ["level", false, "scalar"], ["week", false, "scalar"], ["direction", true, "scalar"], ["method", true, "scalar"], ["dates", true, "matrix"], ["headers", true, "scalar"], ["lunar_new_year", true, "scalar"]],
+  OUTLOOK: [["rates", false, "matrix"], ["weeks", false, "scalar"], ["method", true, "scalar"], ["coverage", true, "matrix"], ["dates", true, "matrix"], ["headers", true, "scalar"], ["lunar_new_year", true, "scalar"], ["event_weeks", true, "matrix"]],
+  MEANAHEAD: [["rates", false, "matrix"], ["from_week", false, "scalar"], ["to_week", false, "scalar"], ["method", true, "scalar"], ["coverage", true, "matrix"], ["dates", true, "matrix"], ["headers", true, "scalar"], ["lunar_new_year", true, "scalar"], ["event_weeks", true, "matrix"]],
+  CHANCE: [["rates", false, "matrix"], ["level", false, "scalar"], ["week", false, "scalar"], ["direction", true, "scalar"], ["method", true, "scalar"], ["dates", true, "matrix"], ["headers", true, "scalar"], ["lunar_new_year", true, "scalar"], ["event_weeks", true, "matrix"]],
   WEEKFACTORS: [["rates", false, "matrix"], ["dates", true, "matrix"], ["kind", true, "scalar"], ["headers", true, "scalar"]],
   DECOMPOSE: [["rates", false, "matrix"], ["dates", true, "matrix"], ["headers", true, "scalar"]],
   STATIONARITY: [["rates", false, "matrix"], ["transform", true, "scalar"], ["headers", true, "scalar"]],

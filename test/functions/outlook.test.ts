@@ -202,6 +202,33 @@ describe("OUTLOOK", () => {
     );
   }, 60_000);
 
+  it("event weeks: a range of dates becomes SARIMA's event regressor, as analyse() with calendar.events; bad cells and weeks outside the rates are #VALUE!", async () => {
+    const n = 3 * 52;
+    const start = Date.UTC(2022, 0, 7);
+    const weekDates = Array.from({ length: n }, (_, t) => new Date(start + t * 7 * 86_400_000));
+    const jumps = [20, 70, 120];
+    const lane = weekDates.map((_, t) => [1500 + 2 * t + 30 * Math.sin(0.9 * t) + (jumps.includes(t) ? 200 : 0)]);
+    const serial = (d: Date): number => (d.getTime() - Date.UTC(1899, 11, 30)) / 86_400_000;
+    const serials = weekDates.map((d) => [serial(d)]);
+    // A column of event dates with a blank, one given as text and one a coming week.
+    const events = [[serial(weekDates[20])], [""], [serial(weekDates[70])], ["2024-05-21"], [serial(new Date(start + (n + 1) * 7 * 86_400_000))]];
+    const out = await outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, events);
+    const iso = (d: Date): string => d.toISOString().slice(0, 10);
+    const listed = [iso(weekDates[20]), iso(weekDates[70]), "2024-05-21", iso(new Date(start + (n + 1) * 7 * 86_400_000))];
+    const want = analyse(readWeekly(lane, { dates: serials }), { method: "sarima", horizon: 4, checks: false, calendar: { events: listed } });
+    expect(want.tables.fit.rows.map((r) => r[0])).toContain("Event weeks");
+    expect(out.map((r) => r.slice(1))).toEqual(want.tables.outlook.rows.map((r) => r.slice(2)));
+    const bad = await excelErrorAsync(outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, [["strike"]]));
+    expect(bad.code).toBe("#VALUE!");
+    expect(bad.message).toBe('Event weeks are dates; cell 1 of them holds "strike".');
+    const late = await excelErrorAsync(outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, [["2030-01-01"]]));
+    expect(late.code).toBe("#VALUE!");
+    expect(late.message).toMatch(/^None of the event weeks falls within the rates/);
+    expect((await excelErrorAsync(outlook(lane, 4, "sarima", OMITTED, OMITTED, OMITTED, OMITTED, events))).message).toBe(
+      "Event weeks need the week-ending dates beside the rates: give the dates argument as well.",
+    );
+  }, 60_000);
+
   it("numbers the weeks ahead when no dates are given, and takes one coverage level", async () => {
     const out = await outlook(rates, 2, "lastweek", [[80]]);
     expect(out.map((r) => r[0])).toEqual([1, 2]);

@@ -10,28 +10,21 @@
  */
 import ExcelJS from "exceljs";
 import type { Report } from "../core/analysis";
-import { publishedSheet, type PublishPart } from "../core/present/published";
-import type { AnalysedSeries, CellStyle, ManagedSheet } from "../core/present/sheets";
+import type { PublishPart } from "../core/present/published";
+import { publishSheets, type PublishSheets } from "../core/present/publishSheets";
+import type { AnalysedSeries, CellStyle } from "../core/present/sheets";
 import type { StampInput } from "../core/present/stamp";
-import { TRACK_SHEET, trackSheet } from "../core/present/trackSheet";
-import { LOG_SHEET, LogRefused, appendPlan, appendStyles, logEntries, readLog, type AppendPlan, type LogReading } from "../core/record/log";
-import { actualsOf, trackRecord, type TrackRecord } from "../core/record/track";
+import { TRACK_SHEET } from "../core/present/trackSheet";
+import { LOG_SHEET, LogRefused, appendStyles, readLog, type AppendPlan, type LogReading } from "../core/record/log";
 import { parseIsoDateText } from "../core/series/excelDate";
 import { UsageError } from "./errors";
 import { plainValue } from "./source";
 import { setTabOrder, sheetNamed, styleCell, tabOrder } from "./writeBook";
 
-export interface PublishOutcome {
+export interface PublishOutcome extends PublishSheets {
   parts: PublishPart[];
   /** When Publish was made (the run's stamp time), ISO-8601 UTC. */
   publishedAt: string;
-  published: ManagedSheet;
-  track: ManagedSheet;
-  /** What was appended to the log, and what was found in it. */
-  plan: AppendPlan;
-  record: TrackRecord;
-  /** Series left out of the log because they are undated. */
-  skipped: string[];
   /** Parts asked for that show nothing for any series, with the run setting that left them out. */
   empty: { part: PublishPart; why: string }[];
 }
@@ -55,20 +48,7 @@ function emptyParts(analysed: AnalysedSeries[], parts: PublishPart[]): { part: P
 /** The Publish sheets and the log append of an analysed run; `reading` is the book's log (null: none yet). */
 export function publishRun(analysed: AnalysedSeries[], stamp: StampInput, parts: PublishPart[], reading: LogReading | null): PublishOutcome {
   const publishedAt = stamp.ranAt;
-  const { entries, skipped } = logEntries(analysed, publishedAt);
-  const plan = appendPlan(reading, entries);
-  // The whole log after the append against the rates just read: corrections by hand count.
-  const record = trackRecord(plan.entries, actualsOf(analysed));
-  return {
-    parts,
-    publishedAt,
-    published: publishedSheet(analysed, stamp, parts, publishedAt),
-    track: trackSheet(record, stamp),
-    plan,
-    record,
-    skipped,
-    empty: emptyParts(analysed, parts),
-  };
+  return { parts, publishedAt, ...publishSheets(analysed, stamp, parts, reading, publishedAt), empty: emptyParts(analysed, parts) };
 }
 
 /**

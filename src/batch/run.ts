@@ -14,10 +14,11 @@ import type { WeeklySeries } from "../core/series/types";
 import { PUBLISHED_SHEET, type PublishPart } from "../core/present/published";
 import { managedSheets, type AnalysedSeries, type ManagedSheet } from "../core/present/sheets";
 import { stampOf, type StampInput } from "../core/present/stamp";
-import { TRACK_SHEET, trackSheet } from "../core/present/trackSheet";
+import { TRACK_SHEET } from "../core/present/trackSheet";
+import { trackOfLog } from "../core/present/publishSheets";
 import { MANAGED_MARK } from "../core/present/stamp";
 import { LOG_SHEET, type LogReading } from "../core/record/log";
-import { actualsOf, trackRecord, type TrackRecord } from "../core/record/track";
+import type { TrackRecord } from "../core/record/track";
 import { analyseMany, createEngine, type Engine, type Transport } from "../engine";
 import { NodeTransport } from "../engine/node";
 import { chartPng } from "./chartImage";
@@ -182,8 +183,9 @@ export async function runBook(settings: RunSettings, progress: ProgressSink, wri
   const sheets = managedSheets(analysed, stamp);
   const publish = settings.publish ? publishRun(analysed, stamp, settings.publish.parts, log) : undefined;
   // A run over a book that keeps a log scores it against the rates just read, as the pane's Run does.
-  const track = publish ? publish.record : log ? trackRecord(log.rows.map((r) => r.entry), actualsOf(analysed)) : undefined;
-  const trackOnly = !publish && track ? trackSheet(track, stamp) : null;
+  const ofLog = !publish && log ? trackOfLog(log.rows.map((r) => r.entry), analysed, stamp) : null;
+  const track = publish ? publish.record : ofLog?.record;
+  const trackOnly = ofLog?.sheet ?? null;
   let written: string | null = null;
   if (writing) {
     progress.update(1, "Drawing the charts and writing the book");

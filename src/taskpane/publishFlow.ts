@@ -15,16 +15,17 @@
  *   4. keep the new ledgers in the book's settings.
  * Publishing the same run twice adds nothing to the log the second time (the log says so).
  */
-import { PUBLISH_PARTS, publishedSheet, type PublishPart } from "../core/present/published";
+import { PUBLISH_PARTS, type PublishPart } from "../core/present/published";
+import { publishSheets } from "../core/present/publishSheets";
 import type { AnalysedSeries } from "../core/present/sheets";
 import type { StampInput } from "../core/present/stamp";
-import { LOG_SHEET, LogRefused, appendPlan, logEntries, type LogReading } from "../core/record/log";
+import { LOG_SHEET, LogRefused, type LogReading } from "../core/record/log";
 import type { LogAppended } from "./excel/forecastLog";
 import type { WriteOptions, WrittenSheet } from "./excel/writeSheets";
 import type { SheetLedger } from "./ledger";
 import type { PaneWorkbook } from "./runFlow";
 import type { PaneSettings } from "./settings";
-import { trackRecordSheet, trackSentence } from "./trackRecord";
+import { trackSentence } from "./trackRecord";
 
 export interface PublishRequest {
   /** The run whose results are published: the pane's last Run or refresh. */
@@ -81,12 +82,10 @@ export async function publishRun(request: PublishRequest, deps: PublishDeps): Pr
     if (e instanceof LogRefused) throw new PublishStopped(`${e.message} Fairlead published nothing.`);
     throw e;
   }
-  const { entries, skipped } = logEntries(analysed, publishedAt);
-  const plan = appendPlan(reading, entries);
+  const { published, track, record, plan, skipped } = publishSheets(analysed, stamp, parts, reading, publishedAt);
 
   // 2. The snapshot and the track record of the log as it will stand.
-  const { sheet: track, record } = trackRecordSheet(plan.entries, analysed, stamp);
-  const sheets = [publishedSheet(analysed, stamp, parts, publishedAt), track];
+  const sheets = [published, track];
   const own: Record<string, SheetLedger> = {};
   for (const s of sheets) if (request.settings.ledgers[s.name]) own[s.name] = request.settings.ledgers[s.name];
   const written = await deps.workbook.write(sheets, own, request.write ?? {});

@@ -36,7 +36,7 @@ import type { WriteOptions, WriteResult } from "./excel/writeSheets";
 import type { SheetLedger } from "./ledger";
 import type { PaneSettings, SavedSeries } from "./settings";
 import { sourceLabel, type DataSource } from "./source";
-import { trackRecordSheet } from "./trackRecord";
+import { trackOfLog } from "../core/present/publishSheets";
 
 /** The workbook as a run needs it. */
 export interface PaneWorkbook {
@@ -227,5 +227,5 @@ async function trackOfRun(workbook: PaneWorkbook, analysed: AnalysedSeries[], st
     return null;
   }
   if (reading === null) return null;
-  return trackRecordSheet(reading.rows.map((r) => r.entry), analysed, stamp).sheet;
+  return trackOfLog(reading.rows.map((r) => r.entry), analysed, stamp).sheet;
 }

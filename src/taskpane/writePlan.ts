@@ -77,6 +77,11 @@ export function writtenValue(v: Cell, style: CellStyle | null): Written {
   return v;
 }
 
+/** The number format a written cell gets: text as text (blank as General), numbers by their style. */
+export function formatFor(w: Written, style: CellStyle | null): string {
+  return typeof w === "string" ? (w === "" ? GENERAL_FORMAT : TEXT_FORMAT) : ((style && NUMBER_FORMATS[style]) ?? GENERAL_FORMAT);
+}
+
 export function writePlan(sheet: ManagedSheet): WritePlan {
   const styles = styleGrid(sheet);
   const values: Written[][] = [];
@@ -88,7 +93,7 @@ export function writePlan(sheet: ManagedSheet): WritePlan {
       const style = styles[r][c];
       const w = writtenValue(cell, style);
       vs.push(w);
-      fs.push(typeof w === "string" ? (w === "" ? GENERAL_FORMAT : TEXT_FORMAT) : ((style && NUMBER_FORMATS[style]) ?? GENERAL_FORMAT));
+      fs.push(formatFor(w, style));
     });
     values.push(vs);
     formats.push(fs);

@@ -10,7 +10,7 @@
 import { LOG_COLUMNS, LOG_HEAD_ROWS, LOG_SHEET, LogRefused, appendStyles, readLog, type AppendPlan, type LogReading } from "../../core/record/log";
 import type { Cell } from "../../core/report";
 import type { CellStyle } from "../../core/present/sheets";
-import { GENERAL_FORMAT, NUMBER_FORMATS, TEXT_FORMAT, writtenValue, type Written } from "../writePlan";
+import { formatFor, writtenValue, type Written } from "../writePlan";
 
 /** A used range's values placed in a grid from A1: blank rows above it, blank cells to its left. */
 export function gridFromA1(values: unknown[][], rowIndex: number, columnIndex: number): unknown[][] {
@@ -53,11 +53,6 @@ export interface LogWrite {
   bold: number[];
 }
 
-function formatOf(w: Written, style: CellStyle | null): string {
-  if (typeof w === "string") return w === "" ? GENERAL_FORMAT : TEXT_FORMAT;
-  return (style && NUMBER_FORMATS[style]) ?? GENERAL_FORMAT;
-}
-
 /**
  * The cells of an append plan: weeks as date serials shown as dates, rates to one decimal,
  * counts whole, text formatted as text (so "2026-12-03T09:00:00Z" and a row check such as
@@ -77,7 +72,7 @@ export function logWrite(plan: AppendPlan, reading: LogReading | null): LogWrite
       const style = styled ? (styles[c] ?? null) : null;
       const w = writtenValue((row[c] ?? null) as Cell, style);
       vs.push(w);
-      fs.push(formatOf(w, style));
+      fs.push(formatFor(w, style));
     }
     values.push(vs);
     formats.push(fs);

@@ -8,6 +8,7 @@ import { addWeeks, isoDate } from "./series/calendar";
 import { InputError } from "./series/errors";
 import type { WeeklySeries } from "./series/types";
 import { WEEKDAY_NAMES } from "./series/wording";
+import { DEFAULT_MEMBERS } from "./models/combination/options";
 import { PLAIN_SUFFIX, getModel, isPlainKey, plainKey } from "./models/registry";
 import type { SearchedStructure } from "./models/types";
 import { modePhrase } from "./evaluate/backtest";
@@ -222,24 +223,36 @@ function calendarWords(opts: ResolvedOptions): string {
   return text.charAt(0).toUpperCase() + text.slice(1);
 }
 
-/** Methods that take calendar regressors so far. */
-const CALENDAR_METHODS = new Set(["sarima"]);
+/** Methods that take calendar regressors: SARIMA (regression with ARMA errors) and TBATS (on the transformed scale). */
+const CALENDAR_METHODS = ["sarima", "tbats"];
 
-/** The fit options a method gets from the analysis options (calendar regressors for SARIMA). */
+/** The fit options a method gets from the analysis options (its calendar regressors). */
 function calendarOptions(series: WeeklySeries, opts: ResolvedOptions, code: string): Record<string, unknown> | undefined {
   const { lunarNewYear, events } = opts.calendar;
-  if (!hasCalendar(opts) || !CALENDAR_METHODS.has(code)) return undefined;
+  if (!hasCalendar(opts) || !CALENDAR_METHODS.includes(code)) return undefined;
   return { calendar: { start: isoDate(series.dates[0]), ...(lunarNewYear ? { lunarNewYear } : {}), ...(events.length > 0 ? { events } : {}) } };
 }
 
-/** A method's fit options: the combination's members (as backtested) and, through it or directly, SARIMA's calendar. */
+/** A method's fit options: the combination's members (as backtested) and, through it or directly, the calendar. */
 function fitOptionsFor(series: WeeklySeries, opts: ResolvedOptions, code: string, comboMembers: string[] | undefined): Record<string, unknown> | undefined {
   if (code !== "combo") return calendarOptions(series, opts, code);
-  const sarima = calendarOptions(series, opts, "sarima");
   const o: Record<string, unknown> = {};
   if (comboMembers) o.members = comboMembers;
-  if (sarima) o.memberOptions = { sarima };
+  const memberOptions: Record<string, Record<string, unknown>> = {};
+  for (const m of CALENDAR_METHODS) {
+    const c = calendarOptions(series, opts, m);
+    if (c && (!comboMembers || comboMembers.includes(m))) memberOptions[m] = c;
+  }
+  if (Object.keys(memberOptions).length > 0) o.memberOptions = memberOptions;
   return Object.keys(o).length > 0 ? o : undefined;
+}
+
+/** Which members of a combination take the calendar, in words. */
+function comboCalendarNote(opts: ResolvedOptions, members: readonly string[] | undefined): string {
+  const taking = CALENDAR_METHODS.filter((m) => (members ?? DEFAULT_MEMBERS).includes(m)).map((m) => (m === "sarima" ? "SARIMA" : "TBATS"));
+  const head = `${calendarWords(opts)} are used by SARIMA and TBATS only`;
+  if (taking.length === 0) return `${head}; no member of the combination takes them.`;
+  return `${head}: in the combination, its ${taking.join(" and ")} member${taking.length > 1 ? "s take" : " takes"} them.`;
 }
 
 function checkKind(k: unknown): FactorKind | null {
@@ -301,15 +314,20 @@ export function backtestOptionsFor(series: WeeklySeries, opts: ResolvedOptions):
       throw new InputError("TOO_FEW_POINTS", `A backtest needs more weeks before its test window; the series has ${n}. Use fewer test weeks.`);
     }
   }
-  const withCalendar = calendarOptions(series, opts, "sarima");
-  const methodOptions = withCalendar ? { ...asked.methodOptions, sarima: { ...asked.methodOptions?.sarima, ...withCalendar } } : asked.methodOptions;
-  // With the calendar on, SARIMA is also scored without it, so the backtest shows what the
-  // regressors buy (and "auto" may choose either); its options are SARIMA's less the calendar.
-  if (withCalendar && methods.includes("sarima") && !methods.includes(plainKey("sarima"))) {
-    const at = methods.indexOf("sarima") + 1;
-    methods = [...methods.slice(0, at), plainKey("sarima"), ...methods.slice(at)];
-    const plain = asked.methodOptions?.sarima;
-    if (plain && methodOptions) methodOptions[plainKey("sarima")] = plain;
+  // With the calendar on, each method that takes it is also scored without it, so the backtest
+  // shows what the regressors buy (and "auto" may choose either); the twin's options are the
+  // method's less the calendar.
+  let methodOptions = asked.methodOptions;
+  for (const code of CALENDAR_METHODS) {
+    const withCalendar = calendarOptions(series, opts, code);
+    if (!withCalendar || !methods.includes(code)) continue;
+    const own = asked.methodOptions?.[code];
+    methodOptions = { ...methodOptions, [code]: { ...own, ...withCalendar } };
+    if (!methods.includes(plainKey(code))) {
+      const at: number = methods.indexOf(code) + 1;
+      methods = [...methods.slice(0, at), plainKey(code), ...methods.slice(at)];
+      if (own) methodOptions[plainKey(code)] = own;
+    }
   }
   return { ...asked, methods, levels: asked.levels ?? opts.levels, ...(methodOptions ? { methodOptions } : {}) };
 }
@@ -372,13 +390,13 @@ export function analyse(series: WeeklySeries, options: AnalysisOptions = {}, con
   }
   const comboMembers = code === "combo" && bt ? opts.backtest?.comboMembers : undefined;
   const fitted = model.fit(series.values, fitOptionsFor(series, opts, code, comboMembers));
-  const calendarNote = !hasCalendar(opts) || CALENDAR_METHODS.has(code)
+  const calendarNote = !hasCalendar(opts) || CALENDAR_METHODS.includes(code)
     ? []
     : isPlainKey(code)
       ? [`The backtest scored ${getModel(code.slice(0, -PLAIN_SUFFIX.length)).label} better without the ${calendarWords(opts).toLowerCase()} as regressors, so the outlook is fitted without them.`]
       : code === "combo"
-      ? [`${calendarWords(opts)} are used by SARIMA only so far: in the combination, its SARIMA member takes them.`]
-      : [`${calendarWords(opts)} are used by SARIMA only so far; ${model.label} was fitted without them.`];
+      ? [comboCalendarNote(opts, comboMembers)]
+      : [`${calendarWords(opts)} are used by SARIMA and TBATS only; ${model.label} was fitted without them.`];
   const fc = fitted.forecast(opts.horizon, opts.levels);
   const dated = series.dates.length === n && n > 0;
   const last = dated ? series.dates[n - 1] : null;

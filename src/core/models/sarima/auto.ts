@@ -35,9 +35,7 @@ import { estimate, prepare } from "./estimate";
 import { SarimaFitted } from "./model";
 import { smallestRootModulus } from "./roots";
 import { MAX_ORDER, defaultSpec, orderLabel, validateSpec, type RegressorSet, type SarimaOrder, type SarimaSpec } from "./spec";
-import { parseIsoDateText } from "../../series/excelDate";
-import { lunarRegressors, type LunarWindow } from "../../series/lunarRegressors";
-import { eventRegressors, joinRegressors } from "../../series/eventRegressors";
+import { calendarRegressors, type CalendarSpec } from "../../series/calendarRegressors";
 
 export type SeasonalityMode = "fourier" | "lag52" | "none" | "auto";
 
@@ -65,26 +63,7 @@ export interface SarimaOptions {
    * date of the first week, and the lunar-new-year window (lunarRegressors.ts). Ignored when
    * `extra` is given.
    */
-  calendar?: { start: string; lunarNewYear?: Partial<LunarWindow>; events?: string[] };
-}
-
-/**
- * The calendar's regressors for a fit on the first `n` weeks. Event weeks count only when one
- * of them falls in those weeks: a column of zeros has no effect to estimate (a backtest origin
- * before the first listed week fits without it).
- */
-function calendarRegressors(c: SarimaOptions["calendar"], n: number): RegressorSet | undefined {
-  if (!c || (!c.lunarNewYear && !(c.events && c.events.length > 0))) return undefined;
-  const start = parseIsoDateText(c.start);
-  if (!start) throw new InputError("BAD_OPTION", `The calendar's first week must be a date written as YYYY-MM-DD; got "${String(c.start)}".`);
-  const events = c.events && c.events.length > 0 ? eventRegressors(start, c.events) : undefined;
-  const probe = new Float64Array(1);
-  let seen = false;
-  for (let t = 0; t < n && events && !seen; t++) {
-    events.at(t, probe);
-    seen = probe[0] !== 0;
-  }
-  return joinRegressors([c.lunarNewYear ? lunarRegressors(start, c.lunarNewYear) : undefined, seen ? events : undefined]);
+  calendar?: CalendarSpec;
 }
 
 /** Fewest weeks for seasonal terms: two full years plus room for the ARMA part. */

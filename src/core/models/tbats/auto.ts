@@ -18,13 +18,17 @@
  *     a non-zero order the structure is refitted with ARMA(p, q) errors, warm-started, and kept
  *     as a further candidate.
  *  4. The final model is the candidate with the lowest AIC; every candidate's AIC is kept.
- * AIC counts the free parameters, the seed states and σ² (model.ts); the likelihoods include the
- * Box-Cox Jacobian, so fits with and without the transform compare on the scale of the rates.
+ * AIC counts the free parameters, the seed states, any calendar regressors and σ² (model.ts); the
+ * likelihoods include the Box-Cox Jacobian, so fits with and without the transform compare on
+ * the scale of the rates. Calendar regressors (lunar new year, event weeks), when asked, enter
+ * every candidate alike, so the search chooses the rest of the structure around them.
  */
 import { guerreroLambda } from "../../math/boxcox";
 import { WEEKLY_PERIOD } from "../../series/calendar";
 import { InputError } from "../../series/errors";
+import { calendarRegressors, type CalendarSpec } from "../../series/calendarRegressors";
 import { autoSarima } from "../sarima/auto";
+import type { RegressorSet } from "../sarima/spec";
 import { fitTbatsStructure, TbatsFitted, type TbatsCandidate } from "./model";
 import { DEFAULT_PERIODS, maxHarmonicsFor, structureLabel, type TbatsParameters, type TbatsStructure } from "./structure";
 
@@ -48,6 +52,10 @@ export interface TbatsOptions {
   arma?: boolean | { p: number; q: number };
   /** Point forecasts as bias-adjusted means (Box-Cox only). */
   biasAdjust?: boolean;
+  /** Regressors on the transformed scale, by week index from the first fitted week. */
+  extra?: RegressorSet;
+  /** Calendar regressors described as data (series/calendarRegressors.ts); ignored when `extra` is given. */
+  calendar?: CalendarSpec;
 }
 
 /** Fewest weeks for any TBATS fit, and the fewest seasons a seasonal period needs. */
@@ -117,6 +125,7 @@ class Search {
     private readonly fixedLambda: number | null,
     private readonly startLambda: number | null,
     private readonly biasAdjust: boolean,
+    private readonly regressors: RegressorSet | undefined,
   ) {}
 
   fit(s: TbatsStructure, start?: TbatsParameters): TbatsFitted | null {
@@ -129,6 +138,7 @@ class Search {
         fixedLambda: this.fixedLambda,
         startLambda: this.startLambda,
         biasAdjust: this.biasAdjust,
+        ...(this.regressors ? { regressors: this.regressors } : {}),
       });
       if (!Number.isFinite(f.aic)) f = null;
     } catch (e) {
@@ -254,7 +264,8 @@ export function autoTbats(y: Float64Array, options: TbatsOptions = {}): TbatsFit
     : n >= 2 * guerreroPeriod
       ? Math.min(0.95, Math.max(0.05, guerreroLambda(y, guerreroPeriod, [0, 1])))
       : 0.5;
-  const search = new Search(y, fixedLambda, startLambda, options.biasAdjust === true);
+  const regressors = options.extra ?? calendarRegressors(options.calendar, n);
+  const search = new Search(y, fixedLambda, startLambda, options.biasAdjust === true, regressors);
 
   const boxCoxChoices = lamOpt === "search" ? [true, false] : [lamOpt === "auto"];
   const trendChoices: { trend: boolean; damped: boolean }[] = [];
@@ -305,11 +316,15 @@ export function autoTbats(y: Float64Array, options: TbatsOptions = {}): TbatsFit
   if (!best) throw new Error("no TBATS structure could be fitted");
   notes.push(...search.notes);
   notes.push(`Chosen by AIC among ${search.candidates.length} fitted structures.`);
-  return new TbatsFitted(best.y, best.structure, best.par, best.seed, {
-    ...best.options,
-    notes,
-    candidates: search.candidates,
-  });
+  return new TbatsFitted(
+    best.y,
+    best.structure,
+    best.par,
+    best.seed,
+    { ...best.options, notes, candidates: search.candidates },
+    undefined,
+    best.coef,
+  );
 }
 
 /** ARMA orders an automatic search picks for the one-step errors (none when it fails). */

@@ -193,6 +193,12 @@ function initialSteps(s: TbatsStructure): Float64Array {
   return Float64Array.from(steps);
 }
 
+/** Regressor values for the fitted weeks, by column: column j is columns[j·n … (j+1)·n − 1]. */
+export interface Regressors {
+  count: number;
+  columns: Float64Array;
+}
+
 /** A workspace that evaluates L* for one structure and data set. */
 export class Objective {
   readonly L: StateLayout;
@@ -203,9 +209,17 @@ export class Objective {
   private refLambda: number | null | undefined = undefined;
   evaluations = 0;
 
-  constructor(readonly prep: Prepared, readonly structure: TbatsStructure) {
+  /**
+   * `regressors`: calendar regressors on the transformed scale, by column (count × n), whose
+   * coefficients are concentrated out with the seeds (filter.ts).
+   */
+  constructor(
+    readonly prep: Prepared,
+    readonly structure: TbatsStructure,
+    readonly regressors: Regressors | null = null,
+  ) {
     this.L = layoutOf(structure);
-    this.reg = new SeedRegression(this.L);
+    this.reg = new SeedRegression(this.L, regressors?.count ?? 0);
     this.ref = new Float64Array(this.L.size);
     this.z = new Float64Array(prep.y.length);
   }
@@ -220,7 +234,7 @@ export class Objective {
       this.refLambda = lam;
     }
     this.evaluations++;
-    return this.reg.sse(this.z, par, this.ref);
+    return this.reg.sse(this.z, par, this.ref, this.regressors?.columns);
   }
 
   /** L* = n log SSE − 2(λ − 1) Σ log y, +∞ where not defined. */
@@ -288,6 +302,8 @@ export interface EstimateResult {
   sse: number;
   /** Seed state x_0 (full state length; ARMA part zero). */
   seed: Float64Array;
+  /** Regressor coefficients β (empty without regressors). */
+  coef: Float64Array;
   evaluations: number;
   converged: boolean;
 }
@@ -296,6 +312,7 @@ export interface EstimateControl {
   start?: TbatsParameters;
   /** Evaluation budget of the whole fit. Default 120 + 60 × parameters. */
   maxEval?: number;
+  regressors?: Regressors | null;
 }
 
 /**
@@ -303,7 +320,7 @@ export interface EstimateControl {
  * (null: none). Starts from `control.start` when given (a warm start), else defaultStart.
  */
 export function estimate(prep: Prepared, s: TbatsStructure, fixedLambda: number | null, startLambda: number | null, control: EstimateControl = {}): EstimateResult {
-  const obj = new Objective(prep, s);
+  const obj = new Objective(prep, s, control.regressors ?? null);
   const lam0 = s.boxCox ? startLambda : fixedLambda;
   const start = control.start ? { ...control.start, lambda: s.boxCox ? control.start.lambda : fixedLambda } : defaultStart(s, lam0);
   const dim = parameterCount(s);
@@ -355,7 +372,7 @@ export function estimate(prep: Prepared, s: TbatsStructure, fixedLambda: number 
   }
   const par = parametersFrom(best.x, s, fixedLambda);
   const sse = obj.sse(par);
-  return { par, objective: best.f, sse, seed: Float64Array.from(obj.reg.seed), evaluations: obj.evaluations, converged };
+  return { par, objective: best.f, sse, seed: Float64Array.from(obj.reg.seed), coef: Float64Array.from(obj.reg.coef), evaluations: obj.evaluations, converged };
 }
 
 /** Names of the natural parameters in summary order, with their values (parametersFrom's order). */
@@ -387,11 +404,11 @@ const BOUNDARY_COORDINATE = 8;
  * weight driven to 0, a seasonal size to 0) are held fixed; parameters that depend only on
  * them, and all of them when the Hessian is not positive definite, get NaN.
  */
-export function standardErrors(y: Float64Array, s: TbatsStructure, par: TbatsParameters): Map<string, number> {
+export function standardErrors(y: Float64Array, s: TbatsStructure, par: TbatsParameters, regressors: Regressors | null = null): Map<string, number> {
   const names = namedParameters(par, s).map((p) => p.name);
   const out = new Map<string, number>(names.map((n) => [n, NaN]));
   const fixedLambda = s.boxCox ? null : par.lambda;
-  const obj = new Objective(prepare(y), s);
+  const obj = new Objective(prepare(y), s, regressors);
   const u0 = unconstrainedFrom(par, s);
   const free: number[] = [];
   for (let i = 0; i < u0.length; i++) if (Math.abs(u0[i]) < BOUNDARY_COORDINATE) free.push(i);

@@ -17,6 +17,16 @@
  *   (rᵀD)_{d_k} = r_{d_{k+1}} − φ_k r_{ε_1},   (rᵀD)_{ε_k} = r_{ε_{k+1}} − θ_k r_{ε_1}.
  * (Derived here from the model equations; a test checks it against the dense D.)
  *
+ * Calendar regressors on the transformed scale, z_t = wᵀx_{t−1} + βᵀu_t + ε_t (the state is
+ * driven by ε_t, so z − Uβ follows the TBATS model): the filter is linear in its input, so
+ *   ε_t(x_0, β) = ε_t(x_ref, 0) − r_tᵀ(x_0 − x_ref) − Σ_j β_j c_{j,t},
+ * where c_j is the filter's error sequence for input u_j from a zero state. That filter is time
+ * invariant (x_t = D x_{t−1} + g u_t, c_t = u_t − wᵀx_{t−1}), so c_j is u_j convolved with one
+ * impulse response h (h_0 = 1, h_i = −wᵀD^{i−1}g), computed once per parameter point; calendar
+ * columns are sparse 0/1, so the convolution costs a few holidays × n, far below one more
+ * filter pass per column (a dense column is filtered directly instead). β joins the seed in
+ * the same least squares.
+ *
  * The regression is solved from normal equations accumulated in the same pass, and the sum of
  * squares evaluated as the quadratic form at the solution, which is second-order insensitive to
  * the solve's rounding. The reference seed is the mean of the first season, so the errors of
@@ -92,6 +102,14 @@ export function referenceSeed(L: StateLayout, z: Float64Array, firstPeriod: numb
  */
 export class SeedRegression {
   readonly seed: Float64Array;
+  /** Regressor coefficients β at the least-squares solution (length regressorCount). */
+  readonly coef: Float64Array;
+  /** Columns in the regression: seed states, then regressors. */
+  private readonly K: number;
+  /** Each regressor column's nonzero weeks (null for a dense column, filtered directly). */
+  private pulses: (Int32Array | null)[] | null = null;
+  private pulsesFor: Float64Array | null = null;
+  private impulse = new Float64Array(0);
   private readonly x: Float64Array;
   private readonly r: Float64Array;
   private readonly A: Float64Array;
@@ -105,8 +123,17 @@ export class SeedRegression {
   private R = new Float64Array(0);
   private E = new Float64Array(0);
 
-  constructor(readonly L: StateLayout) {
-    const k = L.seedCount;
+  /**
+   * `regressorCount` columns of calendar regressors join the seed in the regression; `sse` then
+   * takes them as a k × n array by column.
+   */
+  constructor(
+    readonly L: StateLayout,
+    readonly regressorCount = 0,
+  ) {
+    const k = L.seedCount + regressorCount;
+    this.K = k;
+    this.coef = new Float64Array(regressorCount);
     this.seed = new Float64Array(L.size);
     this.x = new Float64Array(L.size);
     this.r = new Float64Array(L.size);
@@ -121,12 +148,16 @@ export class SeedRegression {
 
   /**
    * Sum of squared one-step errors at the least-squares seed, which is left in `this.seed`.
-   * `ref` is the reference seed (referenceSeed). Returns NaN if the normal equations are singular.
+   * `ref` is the reference seed (referenceSeed); `U` the regressors by column (regressorCount × n),
+   * with β left in `this.coef`. Returns NaN if the normal equations are singular.
    */
-  sse(z: Float64Array, par: TbatsParameters, ref: Float64Array): number {
+  sse(z: Float64Array, par: TbatsParameters, ref: Float64Array, U?: Float64Array): number {
     const L = this.L;
     const { x, r, A, rhs, g1, g2 } = this;
     const k = L.seedCount;
+    const K = this.K;
+    const m = this.regressorCount;
+    if (m > 0 && (!U || U.length !== m * z.length)) throw new Error(`SeedRegression: expected ${m} regressor columns of ${z.length} weeks`);
     const H = L.harmonicCount;
     const sIdx = L.sIndex;
     const sStar = L.sStarIndex;
@@ -148,8 +179,8 @@ export class SeedRegression {
     for (let j = 0; j < p; j++) r[a0 + j] = ar[j];
     for (let j = 0; j < q; j++) r[m0 + j] = ma[j];
     const n = z.length;
-    if (this.R.length < k * n) {
-      this.R = new Float64Array(k * n);
+    if (this.R.length < K * n || this.E.length !== n) {
+      this.R = new Float64Array(K * n);
       this.E = new Float64Array(n);
     }
     const R = this.R;
@@ -205,26 +236,93 @@ export class SeedRegression {
       for (let j = 0; j < p; j++) r[a0 + j] = (j + 1 < p ? r[a0 + j + 1] : 0) - ar[j] * re1;
       for (let j = 0; j < q; j++) r[m0 + j] = (j + 1 < q ? r[m0 + j + 1] : 0) - ma[j] * re1;
     }
-    // Normal equations of e ≈ r_tᵀδ over the first k states, δ = x_0 − x_ref: column dot
-    // products (accumulating in registers is several times faster than a rank-one update of A
-    // per week).
+    if (m > 0) this.regressorColumns(par, U as Float64Array, n, R, k * n);
+    // Normal equations of e ≈ r_tᵀδ + c_tᵀβ over the first k states, δ = x_0 − x_ref, and the
+    // regressors: column dot products (accumulating in registers is several times faster than
+    // a rank-one update of A per week).
     const ee = dot(E, 0, E, 0, n);
-    gram(R, E, k, n, A, rhs);
+    gram(R, E, K, n, A, rhs);
     const delta = this.solve();
     if (delta === null) return NaN;
     // SSE(δ) = eᵀe − 2 δᵀ(Rᵀe) + δᵀ(RᵀR)δ.
     let quad = 0;
     let lin = 0;
-    for (let i = 0; i < k; i++) {
+    for (let i = 0; i < K; i++) {
       lin += delta[i] * rhs[i];
-      let row = A[i * k + i] * delta[i];
-      for (let j = i + 1; j < k; j++) row += 2 * A[i * k + j] * delta[j];
+      let row = A[i * K + i] * delta[i];
+      for (let j = i + 1; j < K; j++) row += 2 * A[i * K + j] * delta[j];
       quad += delta[i] * row;
     }
     const seed = this.seed;
     seed.set(ref);
     for (let i = 0; i < k; i++) seed[i] += delta[i];
+    for (let j = 0; j < m; j++) this.coef[j] = delta[k + j];
     return Math.max(ee - 2 * lin + quad, 0);
+  }
+
+  /**
+   * The diagonal of (XᵀX)⁻¹ for the regressor columns at the last solution, X = [r_t, c_t]:
+   * times σ², the variances of β̂ given the smoothing parameters.
+   */
+  coefficientInverseDiagonal(): Float64Array {
+    const k = this.L.seedCount;
+    const K = this.K;
+    const out = new Float64Array(this.regressorCount);
+    const { factor: C, scale } = this;
+    const y = new Float64Array(K);
+    for (let j = 0; j < this.regressorCount; j++) {
+      // Solve (S⁻¹CᵀCS⁻¹) x = e_c with c = k + j: x = S (CᵀC)⁻¹ S e_c; only x_c is wanted.
+      const c = k + j;
+      y.fill(0);
+      for (let i = c; i < K; i++) {
+        let s = i === c ? 1 : 0;
+        for (let l = c; l < i; l++) s -= C[l * K + i] * y[l];
+        y[i] = s / C[i * K + i];
+      }
+      let v = 0;
+      for (let i = c; i < K; i++) v += y[i] * y[i];
+      out[j] = v * scale[c] * scale[c];
+    }
+    return out;
+  }
+
+  /**
+   * Write the regressors' filter errors c_j (module comment) into R from offset `at`, column by
+   * column: by convolution with the impulse response over a column's nonzero weeks, or by a
+   * direct filter pass for a column with more nonzero weeks than the state has elements.
+   */
+  private regressorColumns(par: TbatsParameters, U: Float64Array, n: number, R: Float64Array, at: number): void {
+    const m = this.regressorCount;
+    if (this.pulsesFor !== U) {
+      const cap = this.L.size;
+      this.pulses = [];
+      for (let j = 0; j < m; j++) {
+        const idx: number[] = [];
+        for (let t = 0; t < n && idx.length <= cap; t++) if (U[j * n + t] !== 0) idx.push(t);
+        this.pulses.push(idx.length <= cap ? Int32Array.from(idx) : null);
+      }
+      this.pulsesFor = U;
+    }
+    const pulses = this.pulses as (Int32Array | null)[];
+    if (pulses.some((p) => p !== null)) {
+      if (this.impulse.length !== n) this.impulse = new Float64Array(n);
+      errorsOfInput(this.L, par, this.g1, this.g2, null, n, this.x, this.impulse);
+    }
+    const h = this.impulse;
+    for (let j = 0; j < m; j++) {
+      const o = at + j * n;
+      const p = pulses[j];
+      if (p === null) {
+        errorsOfInput(this.L, par, this.g1, this.g2, U.subarray(j * n, (j + 1) * n), n, this.x, R.subarray(o, o + n));
+        continue;
+      }
+      R.fill(0, o, o + n);
+      for (let i = 0; i < p.length; i++) {
+        const tau = p[i];
+        const u = U[j * n + tau];
+        for (let t = tau; t < n; t++) R[o + t] += u * h[t - tau];
+      }
+    }
   }
 
   /**
@@ -234,7 +332,7 @@ export class SeedRegression {
    * when A is not even positive semi-definite to rounding.
    */
   private solve(): Float64Array | null {
-    const k = this.L.seedCount;
+    const k = this.K;
     const { A, factor: C, scale, delta: y } = this;
     const b = this.rhs;
     for (let i = 0; i < k; i++) scale[i] = A[i * k + i] > 0 ? 1 / Math.sqrt(A[i * k + i]) : 1;
@@ -267,6 +365,57 @@ export class SeedRegression {
     }
     for (let i = 0; i < k; i++) y[i] *= scale[i];
     return y;
+  }
+}
+
+/**
+ * The one-step errors of the filter for input `u` from a zero state, x_t = D x_{t−1} + g u_t,
+ * c_t = u_t − wᵀx_{t−1} (the same arithmetic as the pass in SeedRegression.sse, without the
+ * regression rows); `u` null is the unit pulse at t = 0, whose errors are the impulse response.
+ * `x` is scratch of the state's size; `g1`, `g2` the per-harmonic γ (harmonicGammas).
+ */
+function errorsOfInput(L: StateLayout, par: TbatsParameters, g1: Float64Array, g2: Float64Array, u: Float64Array | null, n: number, x: Float64Array, out: Float64Array): void {
+  const H = L.harmonicCount;
+  const sIdx = L.sIndex;
+  const sStar = L.sStarIndex;
+  const cs = L.cos;
+  const sn = L.sin;
+  const hasTrend = L.trend > 0;
+  const { alpha, beta, phi, ar, ma } = par;
+  const p = ar.length;
+  const q = ma.length;
+  const a0 = L.arStart;
+  const m0 = L.maStart;
+  x.fill(0);
+  for (let t = 0; t < n; t++) {
+    let arma = 0;
+    for (let j = 0; j < p; j++) arma += ar[j] * x[a0 + j];
+    for (let j = 0; j < q; j++) arma += ma[j] * x[m0 + j];
+    const l = x[0];
+    const b = hasTrend ? x[1] : 0;
+    let pred = l + phi * b + arma;
+    for (let h = 0; h < H; h++) pred += x[sIdx[h]];
+    const e = (u === null ? (t === 0 ? 1 : 0) : u[t]) - pred;
+    out[t] = e;
+    const d = arma + e;
+    x[0] = l + phi * b + alpha * d;
+    if (hasTrend) x[1] = phi * b + beta * d;
+    for (let h = 0; h < H; h++) {
+      const i = sIdx[h];
+      const j = sStar[h];
+      const s = x[i];
+      const ss = x[j];
+      x[i] = cs[h] * s + sn[h] * ss + g1[h] * d;
+      x[j] = -sn[h] * s + cs[h] * ss + g2[h] * d;
+    }
+    if (p > 0) {
+      for (let j = p - 1; j > 0; j--) x[a0 + j] = x[a0 + j - 1];
+      x[a0] = d;
+    }
+    if (q > 0) {
+      for (let j = q - 1; j > 0; j--) x[m0 + j] = x[m0 + j - 1];
+      x[m0] = e;
+    }
   }
 }
 

@@ -15,10 +15,11 @@ import { normalMultiplier } from "../../math/distributions";
 import type { Rng } from "../../math/rng";
 import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
 import type { ReportTable } from "../../report";
+import type { RegressorSet } from "../sarima/spec";
 import type { FitSummary, Fitted, Forecast, ParameterRow, SearchedStructure, UpdateOptions } from "../types";
 import { tbatsWeekFactors } from "./factors";
 import { advance, filterPass, predictFrom, type FilterPass } from "./filter";
-import { estimate, namedParameters, parameterCount, prepare, standardErrors, transformInto } from "./estimate";
+import { estimate, namedParameters, Objective, parameterCount, prepare, standardErrors, transformInto, type Regressors } from "./estimate";
 import { layoutOf, structureLabel, structureWords, type StateLayout, type TbatsParameters, type TbatsStructure } from "./structure";
 
 export interface TbatsCandidate {
@@ -35,6 +36,20 @@ export interface TbatsFitOptions {
   candidates?: TbatsCandidate[];
   /** Whether the optimiser met its tolerances (a note otherwise). */
   converged?: boolean;
+  /** Calendar regressors by week index (0 = the first fitted week), on the transformed scale. */
+  regressors?: RegressorSet;
+}
+
+/** The regressors' values over weeks 0 … n − 1, by column. */
+export function regressorColumns(set: RegressorSet, n: number): Regressors {
+  const m = set.names.length;
+  const columns = new Float64Array(m * n);
+  const row = new Float64Array(m);
+  for (let t = 0; t < n; t++) {
+    set.at(t, row);
+    for (let j = 0; j < m; j++) columns[j * n + t] = row[j];
+  }
+  return { count: m, columns };
 }
 
 /** Gaussian log-likelihood of y with seeds and σ² at their estimates, Jacobian included. */
@@ -62,6 +77,10 @@ export class TbatsFitted implements Fitted {
   /** Transformed series and the filter's record over it. */
   readonly z: Float64Array;
   readonly pass: FilterPass;
+  /** Regressor coefficients β (empty without regressors) and βᵀu_t over the fitted weeks. */
+  readonly coef: Float64Array;
+  readonly effect: Float64Array;
+  private readonly regressorCount: number;
   private errorCache?: Map<string, number>;
 
   constructor(
@@ -72,6 +91,8 @@ export class TbatsFitted implements Fitted {
     readonly options: TbatsFitOptions = {},
     /** σ² to keep (an update without re-estimation); estimated from the errors when absent. */
     sigma2?: number,
+    /** Coefficients of options.regressors (required with them). */
+    coef?: Float64Array,
   ) {
     const n = y.length;
     this.n = n;
@@ -79,20 +100,43 @@ export class TbatsFitted implements Fitted {
     const prep = prepare(y);
     this.z = new Float64Array(n);
     transformInto(prep, par.lambda, this.z);
-    this.pass = filterPass(this.layout, par, this.z, seed);
+    const set = options.regressors;
+    this.regressorCount = set ? set.names.length : 0;
+    if (set && (!coef || coef.length !== this.regressorCount)) throw new Error("TbatsFitted: regressors need one coefficient each");
+    this.coef = set && coef ? Float64Array.from(coef) : new Float64Array(0);
+    this.effect = new Float64Array(n);
+    const adjusted = Float64Array.from(this.z);
+    if (set) {
+      for (let t = 0; t < n; t++) {
+        this.effect[t] = this.effectAt(t);
+        adjusted[t] -= this.effect[t];
+      }
+    }
+    this.pass = filterPass(this.layout, par, adjusted, seed);
     let sse = 0;
     for (let t = 0; t < n; t++) sse += this.pass.errors[t] * this.pass.errors[t];
     this.sigma2 = sigma2 ?? sse / n;
     this.logLik = logLikelihood(sse, n, par.lambda, prep.sumLogY);
-    const k = informationCount(structure);
+    const k = informationCount(structure) + this.regressorCount;
     this.aic = -2 * this.logLik + 2 * k;
     this.aicc = n - k - 1 > 0 ? this.aic + (2 * k * (k + 1)) / (n - k - 1) : NaN;
     this.fitted = new Float64Array(n);
     this.residuals = new Float64Array(n);
     for (let t = 0; t < n; t++) {
-      this.fitted[t] = this.back(this.pass.predictions[t]);
+      this.fitted[t] = this.back(this.pass.predictions[t] + this.effect[t]);
       this.residuals[t] = y[t] - this.fitted[t];
     }
+  }
+
+  /** βᵀu_t at week index t (0 = the first fitted week; t ≥ n are forecast weeks). */
+  private effectAt(t: number): number {
+    const set = this.options.regressors;
+    if (!set) return 0;
+    const row = new Float64Array(this.regressorCount);
+    set.at(t, row);
+    let v = 0;
+    for (let j = 0; j < row.length; j++) v += this.coef[j] * row[j];
+    return v;
   }
 
   /** Inverse transform; below the transform's range (1 + λz < 0) the rate's limit is 0. */
@@ -109,7 +153,7 @@ export class TbatsFitted implements Fitted {
     const x = Float64Array.from(this.pass.state);
     const mean = new Float64Array(h);
     for (let s = 0; s < h; s++) {
-      mean[s] = predictFrom(L, this.par, x);
+      mean[s] = predictFrom(L, this.par, x) + this.effectAt(this.n + s);
       advance(L, this.par, x, 0);
     }
     // u_j = F^{j−1} g, starting from g = F·0 + g·1.
@@ -156,12 +200,14 @@ export class TbatsFitted implements Fitted {
     const sd = Math.sqrt(this.sigma2);
     const x = new Float64Array(L.size);
     const out: Float64Array[] = [];
+    const ahead = new Float64Array(h);
+    for (let s = 0; s < h; s++) ahead[s] = this.effectAt(this.n + s);
     for (let p = 0; p < paths; p++) {
       x.set(this.pass.state);
       const path = new Float64Array(h);
       for (let s = 0; s < h; s++) {
         const eps = sd * rng.normal();
-        path[s] = this.back(predictFrom(L, this.par, x) + eps);
+        path[s] = this.back(predictFrom(L, this.par, x) + ahead[s] + eps);
         advance(L, this.par, x, eps);
       }
       out.push(path);
@@ -173,7 +219,7 @@ export class TbatsFitted implements Fitted {
     const y = appendWeeks(this.y, newY, "tbats");
     if (!options.reestimate) {
       // Same parameters and seeds, filtered over the longer series; σ² kept as estimated.
-      return new TbatsFitted(y, this.structure, this.par, this.seed, { ...this.options, candidates: [] }, this.sigma2);
+      return new TbatsFitted(y, this.structure, this.par, this.seed, { ...this.options, candidates: [] }, this.sigma2, this.coef);
     }
     return fitTbatsStructure(y, this.structure, { ...this.options, start: this.par, fixedLambda: this.par.lambda, candidates: [] });
   }
@@ -210,6 +256,11 @@ export class TbatsFitted implements Fitted {
       return e !== undefined && Number.isFinite(e) ? { name: q.name, value: q.value, se: e } : { name: q.name, value: q.value };
     });
     if (!s.boxCox && p.lambda !== null) parameters.unshift({ name: "lambda", value: p.lambda });
+    const set = this.options.regressors;
+    if (set) {
+      const ce = this.coefficientErrors();
+      set.names.forEach((name, j) => parameters.push(Number.isFinite(ce[j]) ? { name, value: this.coef[j], se: ce[j] } : { name, value: this.coef[j] }));
+    }
     parameters.push({ name: "sigma2", value: this.sigma2 });
     parameters.push({ name: "log-likelihood", value: this.logLik });
     parameters.push({ name: "AIC", value: this.aic });
@@ -218,14 +269,45 @@ export class TbatsFitted implements Fitted {
       `TBATS with ${structureWords(s)}; ${this.layout.seedCount} seed states estimated by regression.` +
         (p.lambda !== null ? " σ² is on the Box-Cox scale." : ""),
     );
+    if (set) {
+      notes.push(
+        `${set.names.length} calendar regressor${set.names.length > 1 ? "s" : ""} (${set.names.join(", ")}) estimated with the seed states` +
+          (p.lambda === null
+            ? ", in the rates' own units"
+            : p.lambda === 0
+              ? " on the log scale (a coefficient of −0.10 is about 10% below the rate expected otherwise)"
+              : ` on the Box-Cox scale (λ = ${p.lambda.toFixed(3)})`) +
+          "; their standard errors take the smoothing parameters as known.",
+      );
+    }
     if (this.options.converged === false) notes.push("The optimiser stopped at its evaluation budget before meeting its tolerances; the fit is the best point it found.");
     return { method: "tbats", structure: structureLabel(s, p), parameters, armaDf: s.p + s.q, notes };
   }
 
   /** Standard errors by parameter name (computed once, on first use; NaN where not defined). */
   parameterErrors(): Map<string, number> {
-    if (!this.errorCache) this.errorCache = standardErrors(this.y, this.structure, this.par);
+    if (!this.errorCache) this.errorCache = standardErrors(this.y, this.structure, this.par, this.regressorData());
     return this.errorCache;
+  }
+
+  private regressorData(): Regressors | null {
+    return this.options.regressors ? regressorColumns(this.options.regressors, this.n) : null;
+  }
+
+  /**
+   * Standard errors of β given the other parameters: σ̂²·[(XᵀX)⁻¹]_jj of the regression that
+   * concentrates the seeds and β (filter.ts), σ̂² = SSE/n; NaN where the regression is singular.
+   */
+  private coefficientErrors(): Float64Array {
+    const data = this.regressorData();
+    if (!data) return new Float64Array(0);
+    const obj = new Objective(prepare(this.y), this.structure, data);
+    const sse = obj.sse(this.par);
+    const out = new Float64Array(data.count).fill(NaN);
+    if (!(sse > 0)) return out;
+    const diag = obj.reg.coefficientInverseDiagonal();
+    for (let j = 0; j < data.count; j++) out[j] = Math.sqrt((sse / this.n) * diag[j]);
+    return out;
   }
 
   /** Candidates the structure search fitted, best first. */
@@ -258,7 +340,8 @@ export function fitTbatsStructure(y: Float64Array, structure: TbatsStructure, op
   const est = estimate(prep, structure, options.fixedLambda ?? null, options.startLambda ?? null, {
     start: options.start,
     maxEval: options.maxEval,
+    regressors: options.regressors ? regressorColumns(options.regressors, y.length) : null,
   });
   const { start: _s, fixedLambda: _f, startLambda: _l, maxEval: _m, ...fitOptions } = options;
-  return new TbatsFitted(y, structure, est.par, est.seed, { ...fitOptions, converged: est.converged });
+  return new TbatsFitted(y, structure, est.par, est.seed, { ...fitOptions, converged: est.converged }, undefined, est.coef);
 }

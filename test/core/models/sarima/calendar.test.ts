@@ -180,7 +180,7 @@ describe("analyse() with calendar: { lunarNewYear }", () => {
 
   test("other methods say they ignore it; an undated series is refused", () => {
     const r = analyse(series, { method: "lastweek", checks: false, calendar: { lunarNewYear: true } });
-    expect(r.warnings.join(" ")).toMatch(/used by SARIMA only so far; .* was fitted without them/);
+    expect(r.warnings.join(" ")).toMatch(/used by SARIMA and TBATS only; .* was fitted without them/);
     const undated = { ...series, dates: [] };
     expect(() => analyse(undated, { method: "sarima", calendar: { lunarNewYear: true } })).toThrow(/need the week-ending dates/);
   });

@@ -6,7 +6,9 @@
  *  - likelihood evaluations per second of the chosen model, beside the work bound of one
  *    filter pass, n × (state size) state updates, and the seed regression's Gram products,
  *    n × k(k+1)/2 multiply-adds for k seed states, so the line shows how close the evaluation
- *    runs to the cost of the filter itself.
+ *    runs to the cost of the filter itself;
+ *  - the same with the lunar-new-year calendar regressors (5 columns: the search, and one
+ *    likelihood evaluation, each with its ratio to the same without them).
  * One JSON line per case (harness.ts). Wall-clock lines, plus one CPU-time line for the
  * search, since the machine is shared.
  */
@@ -15,6 +17,8 @@ import { syntheticRates } from "./synthetic";
 import { autoTbats } from "../src/core/models/tbats";
 import { Objective, prepare } from "../src/core/models/tbats/estimate";
 import { filterPass } from "../src/core/models/tbats/filter";
+import { regressorColumns } from "../src/core/models/tbats/model";
+import { calendarRegressors } from "../src/core/series/calendarRegressors";
 
 const N = 470;
 const RUNS = 7;
@@ -96,5 +100,41 @@ runCase({ name: "models.tbats forecast 12 weeks with 80/95% intervals", n: N, ru
       ratio_to_plain_pass: Number((evalNs / passNs).toFixed(2)),
     }) + "\n",
   );
+}
+{
+  // Calendar regressors: the series read as weeks ending on Fridays from 2017-01-06.
+  const calendar = { start: "2017-01-06", lunarNewYear: { before: 1, after: 3 } };
+  const withCal = autoTbats(history, { calendar });
+  const calLabel = withCal.summary().structure;
+  const plainMs = Number(runCase({ name: "models.tbats automatic search (peer for the calendar line)", n: N, runs: RUNS, setup: () => () => autoTbats(history) }).median_ms);
+  const calMs = Number(runCase({ name: `models.tbats automatic search with lunar-new-year regressors (${calLabel})`, n: N, runs: RUNS, setup: () => () => autoTbats(history, { calendar }) }).median_ms);
+  process.stdout.write(JSON.stringify({ name: "models.tbats automatic search, calendar on / off", n: N, ratio: Number((calMs / plainMs).toFixed(2)) }) + "\n");
+  const set = calendarRegressors(calendar, N);
+  if (!set) throw new Error("no calendar regressors");
+  const data = regressorColumns(set, N);
+  const reps = 1000;
+  const time = (o: Objective, par: typeof fit.par): number => {
+    for (let i = 0; i < 100; i++) o.value(par);
+    const t0 = process.hrtime.bigint();
+    for (let i = 0; i < reps; i++) o.value(par);
+    return Number(process.hrtime.bigint() - t0) / reps;
+  };
+  // The chosen plain model, and the many-harmonic model of the sharp pattern (larger state).
+  const sharpFit = autoTbats(sharp);
+  for (const [f, rates] of [[fit, history], [sharpFit, sharp]] as const) {
+    const a = time(new Objective(prepare(rates), f.structure), f.par);
+    const b = time(new Objective(prepare(rates), f.structure, data), f.par);
+    process.stdout.write(
+      JSON.stringify({
+        name: `models.tbats likelihood evaluation with ${data.count} calendar regressors (${f.summary().structure})`,
+        n: N,
+        state_size: f.layout.size,
+        regressors: data.count,
+        median_ms: Number((b / 1e6).toFixed(4)),
+        peer_ms_without: Number((a / 1e6).toFixed(4)),
+        ratio: Number((b / a).toFixed(2)),
+      }) + "\n",
+    );
+  }
 }
 void consumed();

@@ -20,7 +20,7 @@ import { flag, has, levelsFlag, list, parseArgs, wholeFlag, type FlagSpec, type 
 import { EXIT_BAD_INPUT, EXIT_INTERNAL, EXIT_OK, UsageError, isBadInput } from "./errors";
 import { forecastJson, jsonText, runJson } from "./json";
 import { progressBar } from "./progress";
-import { fairleadVersion, runBook, seriesOfBlock } from "./run";
+import { fairleadVersion, runBook, seriesOfBlock, withEventColumn } from "./run";
 import { bookBlock, csvBlock, loadBook } from "./source";
 import { summaryText } from "./summary";
 
@@ -36,6 +36,7 @@ const COMMON: Record<string, FlagSpec> = {
   choose: { value: true, help: "the measure auto chooses by: mase (default), mape, rmse or smape" },
   "lunar-new-year": { value: false, help: "add lunar-new-year regressors (used by SARIMA and TBATS)" },
   "event-weeks": { value: true, help: "weeks of events of your own as one regressor (SARIMA and TBATS): dates YYYY-MM-DD, any day of each week, past and coming, separated by commas" },
+  "event-column": { value: true, help: "header (or letter) of a column marking event weeks with 1, x or TRUE beside the dates (rows below the last rate count when dated); joins --event-weeks; never read as rates" },
   json: { value: false, help: "print JSON on stdout instead of the summary" },
   timing: { value: false, help: "include run times in the JSON (they differ from run to run)" },
   quiet: { value: false, help: "no progress on stderr" },
@@ -191,6 +192,7 @@ async function runVerb(verb: "run" | "publish", argv: string[], ctx: CliContext)
       table: flag(p, "table"),
       columns: list(p, "column"),
       dates: flag(p, "dates"),
+      eventColumn: flag(p, "event-column"),
       options,
       out: flag(p, "out"),
       into: flag(p, "into"),
@@ -219,12 +221,13 @@ async function forecastVerb(argv: string[], ctx: CliContext): Promise<number> {
   if (!csv && p.positional.length !== 1) throw new UsageError("forecast needs --csv file.csv or one .xlsx book.");
   const block = csv ? csvBlock(csv) : bookBlock(await loadBook(p.positional[0]), p.positional[0], { sheet: flag(p, "sheet"), table: flag(p, "table") });
   const column = flag(p, "column");
-  const series = seriesOfBlock(block, column ? [column] : undefined, flag(p, "dates"));
+  const eventColumn = flag(p, "event-column");
+  const series = seriesOfBlock(block, column ? [column] : undefined, flag(p, "dates"), eventColumn);
   if (series.length !== 1) {
     throw new UsageError(`${block.label} has ${series.length} rate columns; name one with --column.`);
   }
   // A forecast needs no checks; a backtest only when the method is chosen by one.
-  const options = analysisOptions(p, { ...runDefaults(), checks: false });
+  const options = withEventColumn(block, analysisOptions(p, { ...runDefaults(), checks: false }), eventColumn, flag(p, "dates"));
   const progress = progressBar(process.stderr, !has(p, "quiet") && options.method === "auto");
   const engine = createEngine(ctx.transport ?? new NodeTransport(), { size: wholeFlag(p, "workers", 1, 64) });
   let report: Report;

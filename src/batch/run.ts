@@ -24,7 +24,7 @@ import { NodeTransport } from "../engine/node";
 import { chartPng } from "./chartImage";
 import { UsageError } from "./errors";
 import { publishRun, readBookLog, writeLog, type PublishOutcome } from "./publish";
-import { bookBlock, chooseColumns, loadBook, readSeries, type Block } from "./source";
+import { bookBlock, chooseColumns, dateColumn, eventColumnWeeks, loadBook, readSeries, type Block } from "./source";
 import type { ProgressSink } from "./progress";
 import { RUN_SHEETS, checkManagedNames, partsNotKept, saveBook, sheetNamed, writeManaged } from "./writeBook";
 
@@ -34,6 +34,8 @@ export interface RunSettings {
   table?: string;
   columns?: string[];
   dates?: string;
+  /** A column of event marks (1, x or TRUE in the event weeks): its weeks join options.calendar.events. */
+  eventColumn?: string;
   options: AnalysisOptions;
   /** Output book (default: <book>.fairlead.xlsx beside the input). */
   out?: string;
@@ -103,14 +105,25 @@ export function defaultOut(book: string): string {
   return book.replace(/(\.xlsx)?$/i, ".fairlead.xlsx");
 }
 
-/** The series of a block, every chosen column through the intake. */
-export function seriesOfBlock(block: Block, columns: string[] | undefined, dates: string | undefined): WeeklySeries[] {
-  const chosen = chooseColumns(block, { columns, dates });
+/** The series of a block, every chosen column through the intake (an event column is never one). */
+export function seriesOfBlock(block: Block, columns: string[] | undefined, dates: string | undefined, eventColumn?: string): WeeklySeries[] {
+  const chosen = chooseColumns(block, { columns, dates, events: eventColumn });
   if (chosen.dates === null && !columns) {
     // Without dates the season and the outlook's weeks are unknown: say so rather than guess.
     throw new UsageError(`${block.label} has no column of dates; name it with --dates (or give --column to analyse undated rates).`);
   }
   return chosen.rates.map((j) => readSeries(block, j, chosen.dates));
+}
+
+/**
+ * The analysis options with the weeks an event column marks added to the listed event weeks
+ * (unchanged without an event column).
+ */
+export function withEventColumn(block: Block, options: AnalysisOptions, eventColumn: string | undefined, dates: string | undefined): AnalysisOptions {
+  if (!eventColumn) return options;
+  const marked = eventColumnWeeks(block, eventColumn, dateColumn(block, dates));
+  const listed = options.calendar?.events ?? [];
+  return { ...options, calendar: { ...options.calendar, events: [...listed, ...marked] } };
 }
 
 /** Analyses the series in one engine with the same options; progress is the mean over the series. */
@@ -168,13 +181,14 @@ export async function runBook(settings: RunSettings, progress: ProgressSink, wri
   }
 
   const block = bookBlock(wb, settings.book, { sheet: settings.sheet, table: settings.table });
-  const series = seriesOfBlock(block, settings.columns, settings.dates);
-  for (const s of series) resolveOptions(s, settings.options); // bad options fail before any work starts
+  const series = seriesOfBlock(block, settings.columns, settings.dates, settings.eventColumn);
+  const options = withEventColumn(block, settings.options, settings.eventColumn, settings.dates);
+  for (const s of series) resolveOptions(s, options); // bad options fail before any work starts
 
   const engine = createEngine(settings.transport ?? new NodeTransport(), { size: settings.workers });
   let reports: Report[];
   try {
-    reports = await analyseAll(engine, series, settings.options, progress);
+    reports = await analyseAll(engine, series, options, progress);
   } finally {
     engine.close();
   }

@@ -10,6 +10,7 @@ import ExcelJS from "exceljs";
 import { readWeekly } from "../core/series/intake";
 import { InputError, isInputError } from "../core/series/errors";
 import { parseNumberText } from "../core/series/cells";
+import { eventWeeksFromMarks } from "../core/series/eventRegressors";
 import { readDateCell } from "../core/series/excelDate";
 import type { DateSystem } from "../core/series/excelDate";
 import type { WeeklySeries } from "../core/series/types";
@@ -202,25 +203,57 @@ function numberShare(block: Block, j: number): number {
 export interface ColumnChoice {
   columns?: string[];
   dates?: string;
+  /** Header (or letter) of a column of event marks: never a rate column. */
+  events?: string;
+}
+
+/** The date column: the one named, or the first column of dates (null when there is none). */
+export function dateColumn(block: Block, name: string | undefined): number | null {
+  if (name) return findColumn(block, name, "date");
+  for (let j = 0; j < block.columns.length; j++) if (dateShare(block, j) >= 0.9) return j;
+  return null;
 }
 
 /** The date column (given, or the first column of dates) and the rate columns (given, or every other numeric one). */
 export function chooseColumns(block: Block, choice: ColumnChoice): { dates: number | null; rates: number[] } {
-  let dates: number | null = null;
-  if (choice.dates) dates = findColumn(block, choice.dates, "date");
-  else {
-    for (let j = 0; j < block.columns.length && dates === null; j++) if (dateShare(block, j) >= 0.9) dates = j;
-  }
+  const dates = dateColumn(block, choice.dates);
+  const events = choice.events ? findColumn(block, choice.events, "event") : null;
+  if (events !== null && events === dates) throw new UsageError(`"${block.headers[events]}" is the date column; it cannot also be the event column.`);
   let rates: number[];
   if (choice.columns && choice.columns.length > 0) {
     rates = choice.columns.map((c) => findColumn(block, c, "rate"));
     if (dates !== null && rates.includes(dates)) throw new UsageError(`"${block.headers[dates]}" is the date column; it cannot also be a rate column.`);
+    if (events !== null && rates.includes(events)) throw new UsageError(`"${block.headers[events]}" is the event column; it cannot also be a rate column.`);
   } else {
     rates = [];
-    for (let j = 0; j < block.columns.length; j++) if (j !== dates && numberShare(block, j) >= 0.9) rates.push(j);
+    for (let j = 0; j < block.columns.length; j++) if (j !== dates && j !== events && numberShare(block, j) >= 0.9) rates.push(j);
     if (rates.length === 0) throw new UsageError(`${block.label} has no column of rates; name one with --column.`);
   }
   return { dates, rates };
+}
+
+/**
+ * The event weeks a column of marks names (core/series/eventRegressors.ts): the dates, in the
+ * date column, of its rows marked 1, x or TRUE; rows below the last rate count when dated. A
+ * problem names the cell.
+ */
+export function eventColumnWeeks(block: Block, name: string, dates: number | null): string[] {
+  const j = findColumn(block, name, "event");
+  if (dates === null) throw new UsageError(`The event column "${block.headers[j]}" needs a date column beside it; name it with --dates.`);
+  try {
+    return eventWeeksFromMarks({
+      marks: block.columns[j].slice(1),
+      dates: block.columns[dates].slice(1),
+      what: `column "${block.headers[j]}"`,
+      dateSystem: block.dateSystem,
+      rowOffset: block.top + 1,
+      markColOffset: block.left + j,
+    });
+  } catch (e) {
+    if (!isInputError(e)) throw e;
+    const where = e.cell && block.sheet !== null ? ` (cell ${block.sheet}!${cellName(e.cell.row, e.cell.col)})` : e.cell ? ` (line ${e.cell.row + 1} of the file)` : "";
+    throw new InputError(e.code, `${block.label}: ${e.message}${where}`, e.cell);
+  }
 }
 
 /** One rate column through the core's intake; an InputError gets the column and cell named. */

@@ -121,6 +121,42 @@ describe("forecast --json", () => {
     expect(late.stderr).toBe(`fairlead: None of the event weeks falls within the rates (${week(0)} to ${week(199)}), so their effect cannot be estimated; list at least one past week.\n`);
   });
 
+  test("--event-column reads the weeks marked in a column (a coming week too) as --event-weeks would, and never as rates", async () => {
+    const s = laneSeries(200, 7);
+    const week = (t: number): string => s.dates[t].toISOString().slice(0, 10);
+    const coming = new Date(s.dates[199].getTime() + 2 * 7 * 86_400_000);
+    await smallBook(path.join(dir, "events.xlsx"), 200, (ws) => {
+      ws.getCell("D1").value = "Port strike";
+      ws.getCell("D62").value = "x"; // row 62 holds week index 60 (header in row 1)
+      ws.getCell("D122").value = 1;
+      // A dated row below the last rate, marked: a coming event week.
+      ws.getCell("A203").value = coming;
+      ws.getCell("D203").value = true;
+    });
+    const base = ["forecast", "events.xlsx", "--column", "Halden–Corvane FEU", "--horizon", "4", "--method", "sarima", "--json", "--quiet"];
+    const byColumn = fairlead(...base, "--event-column", "Port strike");
+    expect(byColumn.stderr).toBe("");
+    const byList = fairlead(...base, "--event-weeks", `${week(60)},${week(120)},${coming.toISOString().slice(0, 10)}`);
+    expect(byColumn.code).toBe(0);
+    // Same regressor, same fit: the outputs are byte-identical.
+    expect(byColumn.stdout).toBe(byList.stdout);
+    expect((JSON.parse(byColumn.stdout) as { chosen: string }).chosen).toMatch(/\+ 1 further regressor$/);
+    // run reads the two lanes, not the marks.
+    const run = fairlead("run", "events.xlsx", "--method", "lastweek", "--backtest", "off", "--no-checks", "--event-column", "D", "--json", "--quiet");
+    expect(run.code).toBe(0);
+    expect((JSON.parse(run.stdout) as { series: { name: string }[] }).series.map((x) => x.name)).toEqual(["Halden–Corvane FEU", "Corvane–Estmar FEU"]);
+    // A cell that is not a mark: one sentence naming the cell, exit 2.
+    await smallBook(path.join(dir, "badmark.xlsx"), 200, (ws) => {
+      ws.getCell("D1").value = "Port strike";
+      ws.getCell("D62").value = "maybe";
+    });
+    const bad = fairlead("forecast", "badmark.xlsx", "--column", "Halden–Corvane FEU", "--method", "lastweek", "--event-column", "Port strike", "--quiet");
+    expect(bad.code).toBe(2);
+    expect(bad.stderr).toBe(
+      "fairlead: badmark.xlsx › Rates: The event column \"Port strike\" holds “maybe”; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0. (cell Rates!D62)\n",
+    );
+  });
+
   test("--coverage sets the levels and the bound keys", () => {
     const r = fairlead("forecast", "--csv", "lane.csv", "--horizon", "2", "--method", "lastweek", "--coverage", "50,90", "--json");
     expect(r.code).toBe(0);

@@ -9,7 +9,7 @@
 import type { RegressorSet } from "../models/sarima/spec";
 import { isoDate, MS_PER_DAY } from "./calendar";
 import { InputError } from "./errors";
-import { parseIsoDateText } from "./excelDate";
+import { parseIsoDateText, readDateCell, type DateSystem } from "./excelDate";
 
 export const EVENT_COLUMN = "Event weeks";
 
@@ -64,4 +64,71 @@ export function joinRegressors(sets: (RegressorSet | undefined)[]): RegressorSet
       });
     },
   };
+}
+
+/**
+ * A cell of an event column read as a mark: 1, TRUE, "1", "x" or "yes" marks the week; 0,
+ * FALSE, a blank, "0" or "no" leaves it unmarked; anything else is not a mark (null).
+ */
+export function readMark(v: unknown): boolean | null {
+  if (v === null || v === undefined) return false;
+  if (typeof v === "boolean") return v;
+  if (typeof v === "number") return v === 1 ? true : v === 0 ? false : null;
+  if (typeof v === "string") {
+    const t = v.trim().toLowerCase();
+    if (t === "" || t === "0" || t === "no" || t === "false") return false;
+    if (t === "1" || t === "x" || t === "yes" || t === "true") return true;
+  }
+  return null;
+}
+
+/** Whether every cell reads as a mark and at least one marks a week (a column of 0/1, TRUE/FALSE or x). */
+export function isMarkColumn(cells: readonly unknown[]): boolean {
+  let marked = false;
+  for (const c of cells) {
+    const m = readMark(c);
+    if (m === null) return false;
+    if (m) marked = true;
+  }
+  return marked;
+}
+
+export interface MarkColumn {
+  /** The column's cells, row by row beside `dates` (no header). */
+  marks: readonly unknown[];
+  /** The week-ending date cells of the same rows. */
+  dates: readonly unknown[];
+  /** What the column is called in sentences, such as `column "Strike"`. */
+  what: string;
+  dateSystem?: DateSystem;
+  /** Offset of the first row and the columns inside the block read, for the error's cell. */
+  rowOffset?: number;
+  markColOffset?: number;
+}
+
+/**
+ * The event weeks a column of marks names: the dates of its marked rows, as YYYY-MM-DD, in row
+ * order. Rows may run past the last rate (coming weeks), as long as they are dated. Refuses a
+ * cell that is not a mark, a marked row without a date, and a column that marks nothing.
+ */
+export function eventWeeksFromMarks(c: MarkColumn): string[] {
+  const out: string[] = [];
+  const at = (i: number): { row: number; col: number } | undefined =>
+    c.markColOffset === undefined ? undefined : { row: (c.rowOffset ?? 0) + i, col: c.markColOffset };
+  // With the cell known, the sink names it; otherwise the row is counted within the column.
+  const row = (i: number): string => (at(i) ? "" : ` in its row ${i + 1}`);
+  c.marks.forEach((v, i) => {
+    const m = readMark(v);
+    if (m === null) {
+      throw new InputError("BAD_OPTION", `The event ${c.what} holds “${String(v)}”${row(i)}; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0.`, at(i));
+    }
+    if (!m) return;
+    const d = readDateCell(c.dates[i], c.dateSystem ?? 1900);
+    if (d.kind !== "date") {
+      throw new InputError("BAD_OPTION", `The event ${c.what} marks a week${row(i)} with no week-ending date beside it; date the row or clear the mark.`, at(i));
+    }
+    out.push(isoDate(d.date));
+  });
+  if (out.length === 0) throw new InputError("BAD_OPTION", `The event ${c.what} marks no week; put 1 (or x) in the rows of the event weeks.`);
+  return out;
 }

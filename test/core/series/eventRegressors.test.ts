@@ -10,7 +10,9 @@ import { MersenneTwister } from "../../../src/core/math/rng";
 import { getModel } from "../../../src/core/models/registry";
 import type { Fitted } from "../../../src/core/models/types";
 import { optionsPhrase } from "../../../src/core/present/stamp";
-import { EVENT_COLUMN, eventRegressors, eventWeekEndings, joinRegressors, weekIndexOf } from "../../../src/core/series/eventRegressors";
+import { autoTbats } from "../../../src/core/models/tbats/auto";
+import type { InputError } from "../../../src/core/series/errors";
+import { EVENT_COLUMN, eventRegressors, eventWeekEndings, eventWeeksFromMarks, isMarkColumn, joinRegressors, readMark, weekIndexOf } from "../../../src/core/series/eventRegressors";
 import { lunarRegressors } from "../../../src/core/series/lunarRegressors";
 
 const START = "2019-01-04"; // a Friday
@@ -101,5 +103,52 @@ describe("event weeks", () => {
       `None of the event weeks falls within the rates (${START} to ${weekEnding(N - 1)}), so their effect cannot be estimated; list at least one past week.`,
     );
     expect(() => analyse({ ...series, dates: [] }, { method: "sarima", calendar: { events: ["2019-08-01"] } })).toThrow("Event weeks need the week-ending dates beside the rates.");
+  });
+});
+
+describe("event weeks for TBATS", () => {
+  test("TBATS recovers the +15% jump on the log scale within 3 standard errors and carries it into the listed future week", () => {
+    const y = simulate(5, true);
+    const events = eventWeekEndings(start, LISTED);
+    // Fixed structure (log scale, no trend, one harmonic, AR(1) errors): the regressor alone is compared.
+    const structure = { lambda: 0, trend: false, harmonics: [1], arma: { p: 1, q: 0 } };
+    const fit = autoTbats(y, { ...structure, calendar: { start: START, events } });
+    const c = coefficient(fit, EVENT_COLUMN);
+    // Same noise as for SARIMA above, so the same bounds: s.e. near 0.011, within 3 s.e. of 0.15.
+    expect(c.se).toBeLessThan(0.03);
+    expect(Math.abs(c.value - JUMP)).toBeLessThan(3 * c.se);
+    const f = fit.forecast(5, [80]).point;
+    expect(Math.abs(Math.log(f[2] / Math.sqrt(f[1] * f[3])) - c.value)).toBeLessThan(0.02);
+    // Without a listed week in the fitted weeks there is nothing to estimate: no regressor.
+    const early = autoTbats(y.slice(0, 25), { ...structure, harmonics: [0], calendar: { start: START, events } });
+    expect(early.summary().parameters.map((p) => p.name)).not.toContain(EVENT_COLUMN);
+  });
+});
+
+describe("event weeks marked in a column", () => {
+  test("marks: 1, x, yes, TRUE mark; 0, no, FALSE, blank do not; anything else is not a mark", () => {
+    for (const v of [1, "1", "x", "X", " yes ", true, "TRUE"]) expect(readMark(v)).toBe(true);
+    for (const v of [0, "0", "no", false, null, undefined, "", "  "]) expect(readMark(v)).toBe(false);
+    for (const v of [2, 0.5, "maybe", 45000, "2025-01-03"]) expect(readMark(v)).toBeNull();
+    expect(isMarkColumn([0, null, 1, "x"])).toBe(true);
+    // A column of dates (Excel serials) is not one of marks, nor is one that marks nothing.
+    expect(isMarkColumn([45658, 45665])).toBe(false);
+    expect(isMarkColumn([0, null, false])).toBe(false);
+  });
+
+  test("the dates of the marked rows, a dated coming week included; refusals name the problem", () => {
+    // Excel serial 45660 is Friday 2025-01-03 (1900 date system; serial 45658 = 2025-01-01, from memory).
+    const dates = [45660, 45667, 45674, "2025-01-24", null];
+    expect(eventWeeksFromMarks({ marks: [null, "x", 0, 1], dates, what: 'column "Strike"' })).toEqual(["2025-01-10", "2025-01-24"]);
+    expect(() => eventWeeksFromMarks({ marks: ["x", "?"], dates, what: 'column "Strike"' })).toThrow('The event column "Strike" holds “?” in its row 2; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0.');
+    const undated = (): string[] => eventWeeksFromMarks({ marks: [0, 0, 0, 0, 1], dates, what: 'column "Strike"', rowOffset: 1, markColOffset: 3 });
+    expect(undated).toThrow('The event column "Strike" marks a week with no week-ending date beside it; date the row or clear the mark.');
+    try {
+      undated();
+    } catch (e) {
+      // The offset of the cell inside the block read (header in row 0): the sink names the cell.
+      expect((e as InputError).cell).toEqual({ row: 5, col: 3 });
+    }
+    expect(() => eventWeeksFromMarks({ marks: [0, null], dates, what: 'column "Strike"' })).toThrow('The event column "Strike" marks no week; put 1 (or x) in the rows of the event weeks.');
   });
 });

@@ -244,7 +244,7 @@ export function eventColumnWeeks(block: Block, name: string, dates: number | nul
     return eventWeeksFromMarks({
       marks: block.columns[j].slice(1),
       dates: block.columns[dates].slice(1),
-      what: `column "${block.headers[j]}"`,
+      what: `The event column "${block.headers[j]}"`,
       dateSystem: block.dateSystem,
       rowOffset: block.top + 1,
       markColOffset: block.left + j,

@@ -107,8 +107,8 @@ export function outlookRows(t: ReportTable, headers = false): Array<Array<number
  * @param [coverage] Interval coverage in percent: one number such as 80, or a row or column of numbers such as {80,95}. If omitted: 80 and 95.
  * @param [dates] Week-ending dates beside the rates, one per rate cell, such as A2:A400. If omitted, the first column counts the weeks ahead (1, 2, 3 …).
  * @param [headers] Whether the first row of the result holds the column names, such as TRUE. If omitted: no header row.
- * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
- * @param [event_weeks] Weeks of events of your own (a strike, a closure), past or coming, as one regressor for SARIMA: a range of dates, any day of each week, such as H2:H9. Needs the dates. If omitted: none.
+ * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA and TBATS take them; under "auto" the backtest also scores each without them), such as TRUE. Needs the dates. If omitted: FALSE.
+ * @param [event_weeks] Weeks of events of your own (a strike, a closure) as one regressor for SARIMA and TBATS: a range of dates, any day of each week, past or coming, such as H2:H9; or a column of marks beside the dates, 1 (or x, TRUE) in the event weeks and 0 or blank elsewhere, such as C2:C400. Needs the dates. If omitted: none.
  * @returns One row per week ahead: week ending, forecast, then low and high per coverage level.
  */
 export async function outlook(
@@ -123,7 +123,7 @@ export async function outlook(
 ): Promise<any[][]> {
   return guardedAsync(async () => {
     const horizon = readNumber(weeks, "Weeks ahead");
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon, levels: readCoverage(coverage), checks: false, ...readCalendar(lunar_new_year, event_weeks) });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon, levels: readCoverage(coverage), checks: false, ...readCalendar(lunar_new_year, event_weeks, dates) });
     return outlookRows(report.tables.outlook, readHeaders(headers));
   });
 }
@@ -138,8 +138,8 @@ export async function outlook(
  * @param [coverage] Interval coverage in percent, such as 80 or {80,95}. If omitted: 80 and 95.
  * @param [dates] Week-ending dates beside the rates, such as A2:A400.
  * @param [headers] Whether the first row of the result holds the column names, such as TRUE. If omitted: no header row.
- * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
- * @param [event_weeks] Weeks of events of your own (a strike, a closure), past or coming, as one regressor for SARIMA: a range of dates, any day of each week, such as H2:H9. Needs the dates. If omitted: none.
+ * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA and TBATS take them; under "auto" the backtest also scores each without them), such as TRUE. Needs the dates. If omitted: FALSE.
+ * @param [event_weeks] Weeks of events of your own (a strike, a closure) as one regressor for SARIMA and TBATS: a range of dates, any day of each week, past or coming, such as H2:H9; or a column of marks beside the dates, 1 (or x, TRUE) in the event weeks and 0 or blank elsewhere, such as C2:C400. Needs the dates. If omitted: none.
  * @returns One row: the expected average, then low and high per coverage level.
  */
 export async function meanahead(
@@ -156,7 +156,7 @@ export async function meanahead(
   return guardedAsync(async () => {
     const from = readNumber(from_week, "The first week ahead");
     const to = readNumber(to_week, "The last week ahead");
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, levels: readCoverage(coverage), checks: false, spans: [{ from, to }], ...readCalendar(lunar_new_year, event_weeks) });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, levels: readCoverage(coverage), checks: false, spans: [{ from, to }], ...readCalendar(lunar_new_year, event_weeks, dates) });
     const t = present(report.tables.meanAhead, "The average over those weeks");
     const cols = ["Average", ...t.columns.filter((c) => /^(Low|High) /.test(c))];
     return tableOut(t, readHeaders(headers), cols);
@@ -173,8 +173,8 @@ export async function meanahead(
  * @param [method] Method code as text, such as "tbats" (see OUTLOOK). If omitted: lastyear with two years of rates, otherwise lastweek.
  * @param [dates] Week-ending dates beside the rates, such as A2:A400.
  * @param [headers] Whether the first row of the result holds the column name, such as TRUE. If omitted: no header row.
- * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA takes them; under "auto" the backtest also scores SARIMA without them), such as TRUE. Needs the dates. If omitted: FALSE.
- * @param [event_weeks] Weeks of events of your own (a strike, a closure), past or coming, as one regressor for SARIMA: a range of dates, any day of each week, such as H2:H9. Needs the dates. If omitted: none.
+ * @param [lunar_new_year] Whether the weeks around the lunar new year are calendar regressors (SARIMA and TBATS take them; under "auto" the backtest also scores each without them), such as TRUE. Needs the dates. If omitted: FALSE.
+ * @param [event_weeks] Weeks of events of your own (a strike, a closure) as one regressor for SARIMA and TBATS: a range of dates, any day of each week, past or coming, such as H2:H9; or a column of marks beside the dates, 1 (or x, TRUE) in the event weeks and 0 or blank elsewhere, such as C2:C400. Needs the dates. If omitted: none.
  * @returns The probability, between 0 and 1.
  */
 export async function chance(
@@ -190,7 +190,7 @@ export async function chance(
 ): Promise<any[][]> {
   return guardedAsync(async () => {
     const threshold = { level: readNumber(level, "The level"), week: readNumber(week, "The week ahead"), direction: readDirection(direction) };
-    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, checks: false, thresholds: [threshold], ...readCalendar(lunar_new_year, event_weeks) });
+    const report = await analysed(rates, dates, { method: readMethod(method), horizon: 1, checks: false, thresholds: [threshold], ...readCalendar(lunar_new_year, event_weeks, dates) });
     return tableOut(present(report.tables.chance, "The chance"), readHeaders(headers), ["Probability"]);
   });
 }

@@ -9,6 +9,8 @@ import type { Direction } from "../core/outlook/paths";
 import { isDateColumn, type Cell, type ReportTable } from "../core/report";
 import { dateToExcelSerial, parseIsoDateText, readDateCell } from "../core/series/excelDate";
 import { isoDate } from "../core/series/calendar";
+import { isInputError } from "../core/series/errors";
+import { eventWeeksFromMarks, isMarkColumn, readMark } from "../core/series/eventRegressors";
 import { ArgumentError, cellError } from "./errors";
 
 /** One cell of a returned array. */
@@ -134,9 +136,11 @@ export function readLunar(v: unknown): { calendar?: { lunarNewYear: true } } {
  * ISO dates in reading order; undefined when omitted or empty. A cell that is not a date is
  * #VALUE! naming it.
  */
-export function readEventWeeks(v: unknown): string[] | undefined {
+export function readEventWeeks(v: unknown, dates?: unknown): string[] | undefined {
   if (omitted(v)) return undefined;
   const cells = Array.isArray(v) ? (v as unknown[][]).flat() : [v];
+  const marks = markCells(cells);
+  if (marks) return markedWeeks(marks, dates);
   const out: string[] = [];
   cells.forEach((c, i) => {
     if (omitted(c)) return;
@@ -147,10 +151,39 @@ export function readEventWeeks(v: unknown): string[] | undefined {
   return out.length > 0 ? out : undefined;
 }
 
+/**
+ * The cells as a column of marks beside the dates (1, x or TRUE in the event weeks; 0, FALSE or
+ * blank elsewhere), a header cell on top allowed; null when they are not marks (a list of dates).
+ */
+function markCells(cells: unknown[]): { marks: unknown[]; header: boolean } | null {
+  // Every cell a mark and one not blank: marks, even if none marks a week (refused then, with its own sentence).
+  const marks = (c: unknown[]): boolean => isMarkColumn(c) || (c.every((x) => readMark(x) !== null) && c.some((x) => !omitted(x)));
+  if (marks(cells)) return { marks: cells, header: false };
+  const [first, ...rest] = cells;
+  if (typeof first === "string" && readMark(first) === null && marks(rest)) return { marks: rest, header: true };
+  return null;
+}
+
+/** The dates beside the marked cells, row for row with the dates argument (its header skipped alike). */
+function markedWeeks(m: { marks: unknown[]; header: boolean }, dates: unknown): string[] {
+  if (omitted(dates)) throw new ArgumentError("#VALUE!", "Event weeks marked 1 or 0 need the dates argument, row for row beside the marks.");
+  let d = Array.isArray(dates) ? (dates as unknown[][]).flat() : [dates];
+  if (d.length > 0 && readDateCell(d[0]).kind === "invalid" && typeof d[0] === "string") d = d.slice(1);
+  if (d.length !== m.marks.length) {
+    throw new ArgumentError("#VALUE!", `Event weeks marked 1 or 0 need one mark per date: ${m.marks.length} mark${m.marks.length === 1 ? "" : "s"}${m.header ? " below the header" : ""} for ${d.length} dates.`);
+  }
+  try {
+    return eventWeeksFromMarks({ marks: m.marks, dates: d, what: "Event marks" });
+  } catch (e) {
+    if (isInputError(e)) throw new ArgumentError("#VALUE!", e.message);
+    throw e;
+  }
+}
+
 /** The calendar options of the lunar-new-year switch and the event weeks together. */
-export function readCalendar(lunar: unknown, events: unknown): { calendar?: { lunarNewYear?: true; events?: string[] } } {
+export function readCalendar(lunar: unknown, events: unknown, dates?: unknown): { calendar?: { lunarNewYear?: true; events?: string[] } } {
   const l = readLunar(lunar).calendar;
-  const e = readEventWeeks(events);
+  const e = readEventWeeks(events, dates);
   if (!l && !e) return {};
   return { calendar: { ...(l ?? {}), ...(e ? { events: e } : {}) } };
 }

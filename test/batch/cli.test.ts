@@ -153,7 +153,7 @@ describe("forecast --json", () => {
     const bad = fairlead("forecast", "badmark.xlsx", "--column", "Halden–Corvane FEU", "--method", "lastweek", "--event-column", "Port strike", "--quiet");
     expect(bad.code).toBe(2);
     expect(bad.stderr).toBe(
-      "fairlead: badmark.xlsx › Rates: The event column \"Port strike\" holds “maybe”; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0. (cell Rates!D62)\n",
+      "fairlead: badmark.xlsx › Rates: The event column \"Port strike\": “maybe” is not a mark; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0. (cell Rates!D62)\n",
     );
   });
 

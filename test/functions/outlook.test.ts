@@ -229,6 +229,39 @@ describe("OUTLOOK", () => {
     );
   }, 60_000);
 
+  it("event weeks as a column of marks beside the dates (header on top allowed) equal the same weeks listed as dates; TBATS takes them too", async () => {
+    const n = 3 * 52;
+    const start = Date.UTC(2022, 0, 7);
+    const weekDates = Array.from({ length: n }, (_, t) => new Date(start + t * 7 * 86_400_000));
+    const jumps = [20, 70, 120];
+    const lane = weekDates.map((_, t) => [1500 + 2 * t + 30 * Math.sin(0.9 * t) + (jumps.includes(t) ? 200 : 0)]);
+    const serial = (d: Date): number => (d.getTime() - Date.UTC(1899, 11, 30)) / 86_400_000;
+    const serials = weekDates.map((d) => [serial(d)]);
+    const marks = weekDates.map((_, t) => [t === 20 ? 1 : t === 70 ? "x" : t === 120 ? true : t % 2 === 0 ? 0 : ""]);
+    const listed = jumps.map((t) => [serial(weekDates[t])]);
+    const byMarks = await outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, marks);
+    const byDates = await outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, listed);
+    expect(byMarks).toEqual(byDates);
+    // With headers on the rates, the dates and the marks, row for row.
+    const headed = await outlook([["Lane"], ...lane], 4, "sarima", OMITTED, [["Week ending"], ...serials], OMITTED, OMITTED, [["Strike"], ...marks]);
+    expect(headed).toEqual(byDates);
+    // TBATS: the same weeks, the same outlook as analyse() with calendar.events.
+    const tb = await outlook(lane, 4, "tbats", OMITTED, serials, OMITTED, OMITTED, marks);
+    const iso = (d: Date): string => d.toISOString().slice(0, 10);
+    const want = analyse(readWeekly(lane, { dates: serials }), { method: "tbats", horizon: 4, checks: false, calendar: { events: jumps.map((t) => iso(weekDates[t])) } });
+    expect(want.tables.fit.rows.map((r) => r[0])).toContain("Event weeks");
+    expect(tb.map((r) => r.slice(1))).toEqual(want.tables.outlook.rows.map((r) => r.slice(2)));
+    // Marks that do not line up with the dates, that mark nothing, or that need dates not given.
+    const short = await excelErrorAsync(outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, marks.slice(0, 100)));
+    expect(short.code).toBe("#VALUE!");
+    expect(short.message).toBe("Event weeks marked 1 or 0 need one mark per date: 100 marks for 156 dates.");
+    const none = await excelErrorAsync(outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, weekDates.map(() => [0])));
+    expect(none.message).toBe("Event marks: no week is marked; put 1 (or x) in the rows of the event weeks.");
+    expect((await excelErrorAsync(outlook(lane, 4, "sarima", OMITTED, OMITTED, OMITTED, OMITTED, marks))).message).toBe(
+      "Event weeks marked 1 or 0 need the dates argument, row for row beside the marks.",
+    );
+  }, 60_000);
+
   it("numbers the weeks ahead when no dates are given, and takes one coverage level", async () => {
     const out = await outlook(rates, 2, "lastweek", [[80]]);
     expect(out.map((r) => r[0])).toEqual([1, 2]);

@@ -98,7 +98,7 @@ export interface MarkColumn {
   marks: readonly unknown[];
   /** The week-ending date cells of the same rows. */
   dates: readonly unknown[];
-  /** What the column is called in sentences, such as `column "Strike"`. */
+  /** What the column is called at the head of a sentence, such as `The event column "Strike"`. */
   what: string;
   dateSystem?: DateSystem;
   /** Offset of the first row and the columns inside the block read, for the error's cell. */
@@ -116,19 +116,19 @@ export function eventWeeksFromMarks(c: MarkColumn): string[] {
   const at = (i: number): { row: number; col: number } | undefined =>
     c.markColOffset === undefined ? undefined : { row: (c.rowOffset ?? 0) + i, col: c.markColOffset };
   // With the cell known, the sink names it; otherwise the row is counted within the column.
-  const row = (i: number): string => (at(i) ? "" : ` in its row ${i + 1}`);
+  const row = (i: number): string => (at(i) ? "" : `, row ${i + 1}`);
   c.marks.forEach((v, i) => {
     const m = readMark(v);
     if (m === null) {
-      throw new InputError("BAD_OPTION", `The event ${c.what} holds “${String(v)}”${row(i)}; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0.`, at(i));
+      throw new InputError("BAD_OPTION", `${c.what}${row(i)}: “${String(v)}” is not a mark; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0.`, at(i));
     }
     if (!m) return;
     const d = readDateCell(c.dates[i], c.dateSystem ?? 1900);
     if (d.kind !== "date") {
-      throw new InputError("BAD_OPTION", `The event ${c.what} marks a week${row(i)} with no week-ending date beside it; date the row or clear the mark.`, at(i));
+      throw new InputError("BAD_OPTION", `${c.what}${row(i)}: a week is marked with no week-ending date beside it; date the row or clear the mark.`, at(i));
     }
     out.push(isoDate(d.date));
   });
-  if (out.length === 0) throw new InputError("BAD_OPTION", `The event ${c.what} marks no week; put 1 (or x) in the rows of the event weeks.`);
+  if (out.length === 0) throw new InputError("BAD_OPTION", `${c.what}: no week is marked; put 1 (or x) in the rows of the event weeks.`);
   return out;
 }

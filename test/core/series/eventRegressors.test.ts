@@ -139,16 +139,16 @@ describe("event weeks marked in a column", () => {
   test("the dates of the marked rows, a dated coming week included; refusals name the problem", () => {
     // Excel serial 45660 is Friday 2025-01-03 (1900 date system; serial 45658 = 2025-01-01, from memory).
     const dates = [45660, 45667, 45674, "2025-01-24", null];
-    expect(eventWeeksFromMarks({ marks: [null, "x", 0, 1], dates, what: 'column "Strike"' })).toEqual(["2025-01-10", "2025-01-24"]);
-    expect(() => eventWeeksFromMarks({ marks: ["x", "?"], dates, what: 'column "Strike"' })).toThrow('The event column "Strike" holds “?” in its row 2; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0.');
-    const undated = (): string[] => eventWeeksFromMarks({ marks: [0, 0, 0, 0, 1], dates, what: 'column "Strike"', rowOffset: 1, markColOffset: 3 });
-    expect(undated).toThrow('The event column "Strike" marks a week with no week-ending date beside it; date the row or clear the mark.');
+    expect(eventWeeksFromMarks({ marks: [null, "x", 0, 1], dates, what: 'The event column "Strike"' })).toEqual(["2025-01-10", "2025-01-24"]);
+    expect(() => eventWeeksFromMarks({ marks: ["x", "?"], dates, what: 'The event column "Strike"' })).toThrow('The event column "Strike", row 2: “?” is not a mark; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0.');
+    const undated = (): string[] => eventWeeksFromMarks({ marks: [0, 0, 0, 0, 1], dates, what: 'The event column "Strike"', rowOffset: 1, markColOffset: 3 });
+    expect(undated).toThrow('The event column "Strike": a week is marked with no week-ending date beside it; date the row or clear the mark.');
     try {
       undated();
     } catch (e) {
       // The offset of the cell inside the block read (header in row 0): the sink names the cell.
       expect((e as InputError).cell).toEqual({ row: 5, col: 3 });
     }
-    expect(() => eventWeeksFromMarks({ marks: [0, null], dates, what: 'column "Strike"' })).toThrow('The event column "Strike" marks no week; put 1 (or x) in the rows of the event weeks.');
+    expect(() => eventWeeksFromMarks({ marks: [0, null], dates, what: 'The event column "Strike"' })).toThrow('The event column "Strike": no week is marked; put 1 (or x) in the rows of the event weeks.');
   });
 });

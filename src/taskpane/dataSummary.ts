@@ -8,6 +8,8 @@ import type { ReportTable } from "../core/report";
 import { InputError } from "../core/series/errors";
 import { readWeekly } from "../core/series/intake";
 import type { SelectionBlocks } from "./excel/readSelection";
+import type { EventMarks } from "./excel/readSource";
+import { eventWeeksFromMarks } from "../core/series/eventRegressors";
 import type { WeeklySeries } from "../core/series/types";
 import { cellName, columnIndex } from "../core/present/a1";
 
@@ -19,6 +21,8 @@ export interface DataView {
   ratesAddress: string;
   datesAddress: string | null;
   weeks: number;
+  /** The weeks the source's event column marks (YYYY-MM-DD), and the column's name; null without one. */
+  events: { weeks: string[]; column: string; address: string } | null;
 }
 
 export interface SheetOrigin {
@@ -59,14 +63,30 @@ export function seriesOfBlocks(blocks: SelectionBlocks, name?: string): WeeklySe
  * Runs the intake on the blocks read from the selection, with cell offsets relative to the
  * sheet so that an error can point at the cell. Throws the intake's InputError.
  */
-export function summariseBlocks(blocks: SelectionBlocks): DataView {
+export function summariseBlocks(blocks: SelectionBlocks & { events?: EventMarks }): DataView {
   const series = seriesOfBlocks(blocks);
+  const weeks = blocks.events ? markedWeeks(blocks.events) : null;
   return {
     table: describeData(series),
     ratesAddress: blocks.address,
     datesAddress: blocks.datesAddress ?? null,
     weeks: series.values.length,
+    events: weeks && blocks.events ? { weeks, column: blocks.events.name, address: blocks.events.address } : null,
   };
+}
+
+/**
+ * The weeks an event column marks (core/series/eventRegressors.ts), with sheet offsets so a
+ * cell that is not a mark, or a marked row without a date, is named.
+ */
+export function markedWeeks(events: EventMarks): string[] {
+  const at = originOf(events.address);
+  return eventWeeksFromMarks({
+    marks: events.marks.map((r) => r[0]),
+    dates: events.dates.map((r) => r[0]),
+    what: `The event column “${events.name}”`,
+    ...(at ? { rowOffset: at.row, markColOffset: at.col } : {}),
+  });
 }
 
 /**

@@ -29,7 +29,7 @@ import type { WeeklySeries } from "../core/series/types";
 import { analyseMany, type Engine } from "../engine";
 import { isEngineCancelled, plainReason } from "../engine/errors";
 import { cellName } from "../core/present/a1";
-import { originOf, seriesOfBlocks } from "./dataSummary";
+import { markedWeeks, originOf, seriesOfBlocks } from "./dataSummary";
 import type { LogAppended } from "./excel/forecastLog";
 import type { SourceBlocks } from "./excel/readSource";
 import type { WriteOptions, WriteResult } from "./excel/writeSheets";
@@ -74,6 +74,12 @@ export interface RunRequest {
 /** Weeks a refresh may leave unscored before it runs the backtest again. */
 export const RESCORE_AFTER_WEEKS = 4;
 
+/** Options with the weeks an event column marks added to the listed event weeks. */
+export function withMarkedEvents(options: AnalysisOptions, marked: string[]): AnalysisOptions {
+  if (marked.length === 0) return options;
+  return { ...options, calendar: { ...options.calendar, events: [...(options.calendar?.events ?? []), ...marked] } };
+}
+
 function withoutThrough(options: AnalysisOptions): AnalysisOptions {
   const { backtestThrough: _dropped, ...rest } = options;
   return rest;
@@ -83,14 +89,17 @@ function withoutThrough(options: AnalysisOptions): AnalysisOptions {
  * The options a series is analysed with in this run, and the ones saved for the next refresh
  * (which remember how many weeks the backtest saw).
  */
-export function runOptions(entry: SavedSeries, series: WeeklySeries, kind: "run" | "refresh"): { use: AnalysisOptions; save: AnalysisOptions } {
+export function runOptions(entry: SavedSeries, series: WeeklySeries, kind: "run" | "refresh", marked: string[] = []): { use: AnalysisOptions; save: AnalysisOptions } {
   const weeks = series.values.length;
   const base = withoutThrough(entry.options);
   const through = entry.options.backtestThrough;
   const keep = kind === "refresh" && through !== undefined && through < weeks && weeks - through <= RESCORE_AFTER_WEEKS;
-  const use = keep ? { ...base, backtestThrough: through } : base;
+  // The weeks the event column marks join the listed ones for this run only: the column is
+  // read afresh every run, so they are not saved with the options.
+  const marking = withMarkedEvents(base, marked);
+  const use = keep ? { ...marking, backtestThrough: through } : marking;
   // Options were checked against this series when it was read (readAll).
-  const save = needsBacktest(resolveOptions(series, base)) ? { ...base, backtestThrough: keep ? (through as number) : weeks } : base;
+  const save = needsBacktest(resolveOptions(series, marking)) ? { ...base, backtestThrough: keep ? (through as number) : weeks } : base;
   return { use, save };
 }
 
@@ -130,24 +139,27 @@ export function inputSentence(e: InputError, entry: SavedSeries, blocks?: Source
   return `${entry.name || sourceLabel(entry.source)}: ${e.message}${where}`;
 }
 
-async function readAll(workbook: PaneWorkbook, entries: SavedSeries[]): Promise<{ series: WeeklySeries[]; names: string[] }> {
+async function readAll(workbook: PaneWorkbook, entries: SavedSeries[]): Promise<{ series: WeeklySeries[]; names: string[]; marked: string[][] }> {
   const series: WeeklySeries[] = [];
   const names: string[] = [];
+  const marked: string[][] = [];
   for (const entry of entries) {
     let blocks: SourceBlocks | undefined;
     try {
       blocks = await workbook.readSource(entry.source);
       const s = seriesOfBlocks(blocks, blocks.name);
+      const weeks = blocks.events ? markedWeeks(blocks.events) : [];
       // Bad options stop the run before any work starts, with the option's own sentence.
-      resolveOptions(s, entry.options);
+      resolveOptions(s, withMarkedEvents(entry.options, weeks));
       series.push(s);
       names.push(s.name ?? blocks.name);
+      marked.push(weeks);
     } catch (e) {
       if (e instanceof InputError) throw new RunStopped(inputSentence(e, entry, blocks), "input");
       throw e;
     }
   }
-  return { series, names };
+  return { series, names, marked };
 }
 
 /** Runs `request.series` and writes the managed sheets; throws RunStopped or the writer's WriteRefused. */
@@ -155,7 +167,7 @@ export async function runAnalysis(request: RunRequest, deps: RunDeps, control: R
   if (request.series.length === 0) throw new RunStopped("Nothing to analyse: read a column of weekly rates in Data first.", "input");
   const say = control.onProgress ?? (() => undefined);
   say(0, "Reading the rates");
-  const { series, names } = await readAll(deps.workbook, request.series);
+  const { series, names, marked } = await readAll(deps.workbook, request.series);
   const seen = new Set<string>();
   for (const n of names) {
     if (seen.has(n)) {
@@ -166,7 +178,7 @@ export async function runAnalysis(request: RunRequest, deps: RunDeps, control: R
 
   say(READ_SHARE, "Analysing");
   const kind = request.kind ?? "run";
-  const plans = request.series.map((e, i) => runOptions(e, series[i], kind));
+  const plans = request.series.map((e, i) => runOptions(e, series[i], kind, marked[i]));
   let reports: Report[];
   try {
     reports = await analyseMany(

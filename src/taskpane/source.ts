@@ -10,12 +10,18 @@
 import { looksLikeMalformedNumber } from "../core/series/cells";
 import { isLabelText } from "../core/series/intake";
 import { readDateCell } from "../core/series/excelDate";
+import { InputError } from "../core/series/errors";
 import { cellName, columnIndex, columnLetters } from "../core/present/a1";
 import type { SelectionBlocks } from "./excel/readSelection";
 
+/**
+ * `events` / `eventsColumn` (optional, absent in settings saved before it existed): a column of
+ * the same table or sheet marking the desk's event weeks with 1 (or x, TRUE) beside the dates;
+ * read with the rates on every run, so a mark added for a coming week counts at the next run.
+ */
 export type DataSource =
-  | { kind: "table"; table: string; rates: string; dates: string | null }
-  | { kind: "range"; sheet: string; ratesColumn: number; datesColumn: number | null; top: number; header: boolean };
+  | { kind: "table"; table: string; rates: string; dates: string | null; events?: string | null }
+  | { kind: "range"; sheet: string; ratesColumn: number; datesColumn: number | null; top: number; header: boolean; eventsColumn?: number | null };
 
 export type TableSource = Extract<DataSource, { kind: "table" }>;
 export type RangeSource = Extract<DataSource, { kind: "range" }>;
@@ -155,6 +161,39 @@ function startsWithHeader(blocks: SelectionBlocks): boolean {
   return true;
 }
 
+/**
+ * A source with the event column the Data section names: a table column's name, or a sheet
+ * column's letter for a range ("" for none). Refuses, in words, a letter that names no column
+ * and a column that is already the rates or the dates.
+ */
+export function withEvents(source: DataSource, text: string): DataSource {
+  const t = text.trim();
+  if (source.kind === "table") {
+    if (t === "") return { ...source, events: null };
+    if (sameName(t, source.rates) || (source.dates !== null && sameName(t, source.dates))) {
+      throw new InputError("BAD_OPTION", `“${t}” is already the ${sameName(t, source.rates) ? "rates" : "dates"} column; choose another column for the event weeks, or none.`);
+    }
+    if (source.dates === null) throw new InputError("BAD_OPTION", "Event weeks marked in a column go by the dates beside them; choose the dates column too.");
+    return { ...source, events: t };
+  }
+  if (t === "") return { ...source, eventsColumn: null };
+  if (!/^[A-Za-z]{1,3}$/.test(t) || columnIndex(t) > LAST_COLUMN) {
+    throw new InputError("BAD_OPTION", `The event weeks column is a column letter of ${source.sheet}, such as F; got “${t}”.`);
+  }
+  const col = columnIndex(t);
+  if (col === source.ratesColumn || col === source.datesColumn) {
+    throw new InputError("BAD_OPTION", `Column ${t.toUpperCase()} holds the ${col === source.ratesColumn ? "rates" : "dates"}; choose another column for the event weeks, or none.`);
+  }
+  if (source.datesColumn === null) throw new InputError("BAD_OPTION", "Event weeks marked in a column go by the dates beside them; select the dates with the rates.");
+  return { ...source, eventsColumn: col };
+}
+
+/** What the Data section shows for a source's event column: its name, a letter, or "". */
+export function eventsText(source: DataSource): string {
+  if (source.kind === "table") return source.events ?? "";
+  return source.eventsColumn === undefined || source.eventsColumn === null ? "" : columnLetters(source.eventsColumn);
+}
+
 /** How the pane names a source, as a desk would say it. */
 export function sourceLabel(s: DataSource): string {
   if (s.kind === "table") return `${s.table} › ${s.rates}`;
@@ -162,7 +201,10 @@ export function sourceLabel(s: DataSource): string {
   return `${s.sheet} › column ${columnLetters(s.ratesColumn)} from row ${firstRate + 1}`;
 }
 
-/** True when both name the same cells; names are compared as Excel does, without case. */
+/**
+ * True when both name the same rates and dates; names are compared as Excel does, without case.
+ * The event column is a setting of the series, not part of which series it is, so it is not compared.
+ */
 export function sameSource(a: DataSource, b: DataSource): boolean {
   if (a.kind === "table" && b.kind === "table") {
     return (
@@ -201,22 +243,24 @@ export function isDataSource(x: unknown): x is DataSource {
   const o = x as Record<string, unknown>;
   if (o.kind === "table") {
     if (!isName(o.table) || !isName(o.rates)) return false;
-    if (o.dates === null) return true;
-    return isName(o.dates) && !sameName(o.dates, o.rates);
+    if (o.dates !== null && !(isName(o.dates) && !sameName(o.dates, o.rates))) return false;
+    if (o.events === undefined || o.events === null) return true;
+    return isName(o.events) && !sameName(o.events, o.rates) && !(o.dates !== null && sameName(o.events, o.dates as string));
   }
   if (o.kind === "range") {
     if (!isName(o.sheet) || !isIndex(o.ratesColumn, LAST_COLUMN) || !isIndex(o.top, LAST_ROW)) return false;
     if (typeof o.header !== "boolean") return false;
-    if (o.datesColumn === null) return true;
-    return isIndex(o.datesColumn, LAST_COLUMN) && o.datesColumn !== o.ratesColumn;
+    if (o.datesColumn !== null && !(isIndex(o.datesColumn, LAST_COLUMN) && o.datesColumn !== o.ratesColumn)) return false;
+    if (o.eventsColumn === undefined || o.eventsColumn === null) return true;
+    return isIndex(o.eventsColumn, LAST_COLUMN) && o.eventsColumn !== o.ratesColumn && o.eventsColumn !== o.datesColumn;
   }
   return false;
 }
 
 /**
  * Does a change at `changedAddress` (as a worksheet's onChanged event reports it, with or
- * without a sheet name) touch the rate or date column of a range source at or below its top
- * row? `sheetName` is the sheet the event came from, used for areas that name no sheet.
+ * without a sheet name) touch the rate, date or event column of a range source at or below its
+ * top row? `sheetName` is the sheet the event came from, used for areas that name no sheet.
  *
  * Rows inserted or deleted below the top and whole-row edits count; changes above the top or
  * in other columns do not. An address that cannot be read counts as a change, since a missed
@@ -230,7 +274,7 @@ export function touches(source: DataSource, changedAddress: string, sheetName: s
   if (source.kind === "table") return true;
   const areas = areasOf(changedAddress);
   if (!areas) return true;
-  const columns = source.datesColumn === null ? [source.ratesColumn] : [source.ratesColumn, source.datesColumn];
+  const columns = [source.ratesColumn, source.datesColumn, source.eventsColumn].filter((c): c is number => c !== null && c !== undefined);
   return areas.some(
     (a) =>
       sameName(a.sheet ?? sheetName, source.sheet) &&
@@ -250,7 +294,8 @@ export function placeTable(source: TableSource, tableAddress: string, columnName
   const position = (name: string): number => columnNames.findIndex((c) => sameName(c, name));
   const rates = position(source.rates);
   const dates = source.dates === null ? null : position(source.dates);
-  if (rates < 0 || dates === -1) return null;
+  const events = source.events === undefined || source.events === null ? null : position(source.events);
+  if (rates < 0 || dates === -1 || events === -1) return null;
   return {
     kind: "range",
     sheet: area.sheet,
@@ -258,6 +303,7 @@ export function placeTable(source: TableSource, tableAddress: string, columnName
     datesColumn: dates === null ? null : area.left + dates,
     top: area.top,
     header: true,
+    ...(events === null ? {} : { eventsColumn: area.left + events }),
   };
 }
 

@@ -21,7 +21,7 @@ import { publishRun, PublishStopped } from "./publishFlow";
 import { RefreshScheduler } from "./refreshScheduler";
 import { runAnalysis, RunStopped, type RunOutcome } from "./runFlow";
 import { emptySettings, withoutSeries, withSeries, type PaneSettings, type SavedSeries } from "./settings";
-import { sourceFromSelection, sourceLabel, sameSource, type DataSource } from "./source";
+import { eventsText, sourceFromSelection, sourceLabel, sameSource, withEvents, type DataSource } from "./source";
 
 // ---- page helpers ----------------------------------------------------------------------
 
@@ -82,6 +82,8 @@ interface PaneState {
   watch: Watch | null;
   refresh: RefreshScheduler | null;
   spill: RefreshScheduler | null;
+  /** The Data section's event column was changed by hand in this session. */
+  eventsEdited: boolean;
 }
 
 const state: PaneState = {
@@ -94,6 +96,7 @@ const state: PaneState = {
   watch: null,
   refresh: null,
   spill: null,
+  eventsEdited: false,
 };
 
 // ---- the form --------------------------------------------------------------------------
@@ -196,6 +199,7 @@ function showSummary(view: DataView): void {
   const pairs: [string, string][] = [
     ["Rates from", view.ratesAddress],
     ["Dates from", view.datesAddress ?? "none found"],
+    ...(view.events ? [["Event weeks marked", `${view.events.weeks.join(", ")} (${view.events.address})`] as [string, string]] : []),
     ...view.table.rows.map((row): [string, string] => [shown(row[0]), shown(row[1])]),
   ];
   byId<HTMLDListElement>("data-facts").replaceChildren(
@@ -224,7 +228,7 @@ function tableChosen(): DataSource | null {
   if (!t) return null;
   const rates = byId<HTMLSelectElement>("table-rates").value;
   const dates = byId<HTMLSelectElement>("table-dates").value;
-  return { kind: "table", table: t.name, rates, dates: dates === "" ? null : dates };
+  return withEvents({ kind: "table", table: t.name, rates, dates: dates === "" ? null : dates }, byId<HTMLSelectElement>("table-events").value);
 }
 
 function fillTableColumns(): void {
@@ -233,6 +237,7 @@ function fillTableColumns(): void {
   const rateChoices = (t.ratesColumns.length > 0 ? t.ratesColumns : t.columns).map((c) => ({ value: c, label: c }));
   options(byId("table-rates"), rateChoices, rateChoices[0]?.value);
   options(byId("table-dates"), [{ value: "", label: "None (undated)" }, ...t.columns.map((c) => ({ value: c, label: c }))], t.datesColumn ?? "");
+  options(byId("table-events"), [{ value: "", label: "None" }, ...t.columns.map((c) => ({ value: c, label: c }))], "");
 }
 
 async function loadTables(): Promise<void> {
@@ -268,7 +273,7 @@ async function readData(): Promise<{ source: DataSource; name: string } | null> 
     } else {
       const selected = await currentSelection();
       blocks = selected;
-      source = sourceFromSelection(selected);
+      source = withEvents(sourceFromSelection(selected), byId<HTMLInputElement>("range-events").value);
       // What a run reads: the same columns from the same top row down to the last filled cell,
       // so the summary shows exactly the weeks Run will analyse (and a refresh will extend).
       const read = await sourceCells(source);
@@ -277,11 +282,20 @@ async function readData(): Promise<{ source: DataSource; name: string } | null> 
     }
     const view = summariseBlocks(blocks);
     showSummary(view);
-    setText("data-status", `Read ${view.weeks} weeks of ${name}.`);
-    state.current = { source, name };
-    // A series analysed before: show the options it was run with.
+    setText("data-status", `Read ${view.weeks} weeks of ${name}${view.events ? `, ${view.events.weeks.length} event week${view.events.weeks.length === 1 ? "" : "s"} marked in ${view.events.column}` : ""}.`);
+    // A series analysed before: show the options it was run with, and keep its event column
+    // unless the field was edited in this session (a blank field at start-up is not a choice).
     const saved = state.settings.series.find((s) => sameSource(s.source, source));
     if (saved) fillForm(formFromOptions(saved.options));
+    if (saved && !state.eventsEdited && eventsText(source) === "" && eventsText(saved.source) !== "") {
+      source = withEvents(source, eventsText(saved.source));
+      byId<HTMLInputElement | HTMLSelectElement>(source.kind === "table" ? "table-events" : "range-events").value = eventsText(saved.source);
+      const again = await sourceCells(source);
+      const marked = summariseBlocks(again);
+      showSummary(marked);
+      setText("data-status", `Read ${marked.weeks} weeks of ${name}${marked.events ? `, ${marked.events.weeks.length} event week${marked.events.weeks.length === 1 ? "" : "s"} marked in ${marked.events.column} (as in its last run)` : ""}.`);
+    }
+    state.current = { source, name };
     return state.current;
   } catch (e) {
     const message =
@@ -562,6 +576,7 @@ async function start(): Promise<void> {
       const table = sourceKind() === "table";
       show("table-pick", table);
       show("data-hint", !table);
+      show("range-events-box", !table);
       state.current = null;
       if (table) void loadTables();
     });
@@ -572,6 +587,12 @@ async function start(): Promise<void> {
   });
   byId("table-rates").addEventListener("change", () => (state.current = null));
   byId("table-dates").addEventListener("change", () => (state.current = null));
+  for (const id of ["table-events", "range-events"]) {
+    byId(id).addEventListener("change", () => {
+      state.current = null;
+      state.eventsEdited = true;
+    });
+  }
   byId("read-data").addEventListener("click", () => void readData());
   byId("run").addEventListener("click", () => void onRun());
   byId("cancel").addEventListener("click", () => state.running?.abort());

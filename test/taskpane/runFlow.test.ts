@@ -214,3 +214,39 @@ describe("a pane run", () => {
     expect((e as RunStopped).message).toMatch(/both called “Halden–Corvane FEU”/);
   });
 });
+
+describe("a pane run with an event column", () => {
+  it("adds the weeks the column marks (a dated coming week too) to the listed ones, as analyse() with calendar.events; saves only the listed ones", async () => {
+    const blocks = laneBlocks(180);
+    const lane = laneSeries(180);
+    const iso = (t: number): string => new Date(lane.dates[0].getTime() + t * 7 * 86_400_000).toISOString().slice(0, 10);
+    // Column C marks weeks 40 and 100 and, two rows under the last rate, a coming week (t = 181).
+    const marks: unknown[][] = Array.from({ length: 182 }, (_, t) => [t === 40 ? "x" : t === 100 ? 1 : t === 181 ? true : null]);
+    const dates: unknown[][] = Array.from({ length: 182 }, (_, t) => [iso(t)]);
+    const book = new StandInBook({ ...blocks, events: { marks, dates, address: "Rates!C2:C183", name: "Port strike" } });
+    const options = { method: "sarima", horizon: 4, levels: [80], checks: false, calendar: { events: [iso(150)] } };
+    const source: DataSource = { ...SOURCE, eventsColumn: 2 };
+    const out = await runAnalysis({ series: [{ source, name: "", options }], settings: emptySettings() }, { workbook: book, engine, version: "0.1.0", now: () => NOW });
+    const direct = analyse(lane, { ...options, calendar: { events: [iso(150), iso(40), iso(100), iso(181)] } });
+    expect(direct.tables.fit.rows.map((r) => r[0])).toContain("Event weeks");
+    expect(out.analysed[0].report.tables.outlook).toEqual(direct.tables.outlook);
+    expect(out.analysed[0].report.tables.fit).toEqual(direct.tables.fit);
+    // The column is read afresh every run: the saved options keep only the typed week.
+    expect(book.saved[0].series[0].options).toEqual(options);
+    expect(book.saved[0].series[0].source).toEqual(source);
+  });
+
+  it("stops before any work with the cell named when a mark is not one", async () => {
+    const blocks = laneBlocks(120);
+    const marks: unknown[][] = Array.from({ length: 120 }, (_, t) => [t === 30 ? "strike" : null]);
+    const book = new StandInBook({ ...blocks, events: { marks, dates: blocks.dates?.slice(1) ?? [], address: "Rates!C2:C121", name: "Port strike" } });
+    const run = runAnalysis(
+      { series: [{ source: { ...SOURCE, eventsColumn: 2 }, name: "", options: { method: "lastweek", checks: false } }], settings: emptySettings() },
+      { workbook: book, engine, version: "0.1.0", now: () => NOW },
+    );
+    await expect(run).rejects.toThrow(
+      "Rates › column B from row 2: The event column “Port strike”: “strike” is not a mark; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0. (Cell Rates!C32.)",
+    );
+    expect(book.writes).toHaveLength(0);
+  });
+});

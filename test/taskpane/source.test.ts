@@ -3,6 +3,7 @@ import {
   areasOf,
   columnAddress,
   DataSource,
+  eventsText,
   isDataSource,
   LAST_COLUMN,
   LAST_ROW,
@@ -11,7 +12,9 @@ import {
   sameSource,
   sourceFromSelection,
   sourceLabel,
+  TableSource,
   touches,
+  withEvents,
 } from "../../src/taskpane/source";
 
 // Fridays from 2025-01-03 (Excel serial 45660).
@@ -216,5 +219,47 @@ describe("sources saved in settings", () => {
   it("writes one-column addresses with Excel's own sheet prefix", () => {
     expect(columnAddress("'Lane book'!C1:C99", 2, 0, 119)).toBe("'Lane book'!C1:C120");
     expect(columnAddress("Rates!C5", 2, 4, 4)).toBe("Rates!C5");
+  });
+});
+
+describe("an event column on a source", () => {
+  const range: RangeSource = { kind: "range", sheet: "Rates", ratesColumn: 2, datesColumn: 1, top: 0, header: true };
+  const table: DataSource = { kind: "table", table: "WeeklyRates", rates: "Halden–Corvane FEU", dates: "Week ending" };
+
+  it("is set from a letter (range) or a column name (table), and refused in words when it cannot be", () => {
+    expect(withEvents(range, " f ")).toEqual({ ...range, eventsColumn: 5 });
+    expect(withEvents(range, "")).toEqual({ ...range, eventsColumn: null });
+    expect(eventsText(withEvents(range, "F"))).toBe("F");
+    expect(() => withEvents(range, "C")).toThrow("Column C holds the rates; choose another column for the event weeks, or none.");
+    expect(() => withEvents(range, "B")).toThrow("Column B holds the dates; choose another column for the event weeks, or none.");
+    expect(() => withEvents(range, "F1")).toThrow("The event weeks column is a column letter of Rates, such as F; got “F1”.");
+    expect(() => withEvents({ ...range, datesColumn: null }, "F")).toThrow(/go by the dates beside them/);
+    expect(withEvents(table, "Port strike")).toEqual({ ...table, events: "Port strike" });
+    expect(() => withEvents(table, "week ending")).toThrow("“week ending” is already the dates column; choose another column for the event weeks, or none.");
+    expect(eventsText(table)).toBe("");
+  });
+
+  it("is saved and read back (older settings without it still read), is watched, follows a table's columns, and does not make another series", () => {
+    const withF = withEvents(range, "F");
+    expect(isDataSource(JSON.parse(JSON.stringify(withF)))).toBe(true);
+    expect(isDataSource(range)).toBe(true);
+    expect(isDataSource({ ...range, eventsColumn: 2 })).toBe(false); // the rates column
+    expect(isDataSource({ ...range, eventsColumn: -1 })).toBe(false);
+    expect(isDataSource({ ...table, events: "Week ending" })).toBe(false);
+    expect(isDataSource({ ...table, events: "Port strike" })).toBe(true);
+    // A mark typed into column F below the top row triggers a refresh; column G does not.
+    expect(touches(withF, "Rates!F40", "Rates")).toBe(true);
+    expect(touches(withF, "Rates!G40", "Rates")).toBe(false);
+    expect(touches(range, "Rates!F40", "Rates")).toBe(false);
+    // Table WeeklyRates at Rates!B2:F60 with columns Week ending, …, Port strike (5th: column F).
+    const placed = placeTable(
+      { ...table, events: "Port strike" } as TableSource,
+      "Rates!B2:F60",
+      ["Week ending", "Corvane–Estmar FEU", "Halden–Corvane FEU", "Notes", "Port strike"],
+    );
+    expect(placed).toEqual({ kind: "range", sheet: "Rates", ratesColumn: 3, datesColumn: 1, top: 1, header: true, eventsColumn: 5 });
+    expect(placeTable({ ...table, events: "Gone" } as TableSource, "Rates!B2:F60", ["Week ending", "Halden–Corvane FEU"])).toBeNull();
+    // Same rates and dates: the same series, whatever its event column.
+    expect(sameSource(withF, range)).toBe(true);
   });
 });

@@ -17,6 +17,21 @@ import type { ContextLike, SelectionBlocks } from "./readSelection";
 export interface SourceBlocks extends SelectionBlocks {
   /** The series name: the header text or the table column's name; else the column letter. */
   name: string;
+  /** The source's event column, when it names one: its marks below the header, with the dates of the same rows. */
+  events?: EventMarks;
+}
+
+/**
+ * An event column as read: every row below the header, including dated rows under the last rate
+ * (a coming event week), so `marks` and `dates` may run longer than the rates.
+ */
+export interface EventMarks {
+  marks: unknown[][];
+  dates: unknown[][];
+  /** Address of the marks (the sheet's own, so a problem names the cell). */
+  address: string;
+  /** The column's header, or its letter. */
+  name: string;
 }
 
 /**
@@ -45,14 +60,21 @@ async function readTable(context: ContextLike, s: TableSource): Promise<SourceBl
   rates.load("name");
   const dates = s.dates === null ? null : table.columns.getItemOrNullObject(s.dates);
   dates?.load("name");
+  const eventsName = s.events ?? null;
+  const events = eventsName === null ? null : table.columns.getItemOrNullObject(eventsName);
+  events?.load("name");
   await context.sync();
   if (rates.isNullObject) throw missingColumn(s.table, s.rates, "rate");
   if (dates?.isNullObject) throw missingColumn(s.table, s.dates as string, "date");
+  if (events?.isNullObject) throw missingColumn(s.table, eventsName as string, "event");
+  if (events && dates === null) throw noDatesForEvents(events.name);
 
   const ratesRange = rates.getRange();
   ratesRange.load("address, values");
   const datesRange = dates?.getRange() ?? null;
   datesRange?.load("address, values");
+  const eventsRange = events?.getRange() ?? null;
+  eventsRange?.load("address, values");
   await context.sync();
 
   const all = column(ratesRange.values as unknown[][]);
@@ -71,10 +93,25 @@ async function readTable(context: ContextLike, s: TableSource): Promise<SourceBl
     blocks.datesAddress = trimmed(datesRange.address, first, end);
     blocks.datesFrom = "selection";
   }
+  if (eventsRange && datesRange && events) {
+    // Every body row (the header, when shown, is the column's name; the totals row is no week).
+    const top = table.showHeaders ? 1 : 0;
+    const bottom = all.length - (table.showTotals ? 1 : 0);
+    blocks.events = {
+      marks: column(eventsRange.values as unknown[][]).slice(top, bottom),
+      dates: column(datesRange.values as unknown[][]).slice(top, bottom),
+      address: trimmed(eventsRange.address, top, Math.max(top, bottom)),
+      name: events.name,
+    };
+  }
   return blocks;
 }
 
-function missingColumn(table: string, name: string, which: "rate" | "date"): InputError {
+function noDatesForEvents(name: string): InputError {
+  return new InputError("SHAPE", `The event column “${name}” marks weeks by the dates beside it; choose the dates column too.`);
+}
+
+function missingColumn(table: string, name: string, which: "rate" | "date" | "event"): InputError {
   return new InputError("SHAPE", `The table ${table} has no column “${name}” any more; pick the ${which} column again.`);
 }
 
@@ -112,6 +149,10 @@ async function readRange(context: ContextLike, s: RangeSource): Promise<SourceBl
   ratesRange.load("address, values");
   const datesRange = s.datesColumn === null ? null : sheet.getRangeByIndexes(s.top, s.datesColumn, rows, 1);
   datesRange?.load("address, values");
+  const eventsColumn = s.eventsColumn ?? null;
+  if (eventsColumn !== null && !datesRange) throw noDatesForEvents(`column ${columnLetters(eventsColumn)}`);
+  const eventsRange = eventsColumn === null ? null : sheet.getRangeByIndexes(s.top, eventsColumn, rows, 1);
+  eventsRange?.load("address, values");
   await context.sync();
 
   const all = ratesRange.values as unknown[][];
@@ -128,6 +169,18 @@ async function readRange(context: ContextLike, s: RangeSource): Promise<SourceBl
     blocks.dates = (datesRange.values as unknown[][]).slice(0, end);
     blocks.datesAddress = trimmed(datesRange.address, 0, end);
     blocks.datesFrom = "selection";
+  }
+  if (eventsRange && datesRange && eventsColumn !== null) {
+    // Down to the sheet's last used row, past the last rate: a dated coming week may be marked.
+    const marks = eventsRange.values as unknown[][];
+    const top = s.header ? 1 : 0;
+    const head = marks[0]?.[0];
+    blocks.events = {
+      marks: marks.slice(top),
+      dates: (datesRange.values as unknown[][]).slice(top),
+      address: trimmed(eventsRange.address, top, Math.max(top, marks.length)),
+      name: s.header && isLabelText(head) ? head.trim() : `column ${columnLetters(eventsColumn)}`,
+    };
   }
   return blocks;
 }

@@ -6,7 +6,7 @@
 import { OfficeMockObject } from "office-addin-mock";
 
 import { InputError } from "../../../src/core/series/errors";
-import { summariseBlocks } from "../../../src/taskpane/dataSummary";
+import { describeFailure, summariseBlocks } from "../../../src/taskpane/dataSummary";
 import type { ContextLike } from "../../../src/taskpane/excel/readSelection";
 import { readSource } from "../../../src/taskpane/excel/readSource";
 import type { DataSource } from "../../../src/taskpane/source";
@@ -128,6 +128,22 @@ describe("readSource: a table", () => {
     expect(summariseBlocks(blocks).weeks).toBe(4);
   });
 
+  it("reads an event column's marks on every body row with the dates beside them, and the Data view lists the marked weeks", async () => {
+    const markCells: Cells = [["Port strike"], [null], ["x"], [0], [1], [""]];
+    const { context } = tableWorkbook({ extra: { "Port strike": column("Port strike", range("Rates!F2:F7", markCells)) } });
+    const source: DataSource = { kind: "table", table: "WeeklyRates", rates: LANE, dates: "Week ending", events: "Port strike" };
+    const blocks = await readSource(context, source);
+    // Header and totals row left out; four body rows, dates row for row.
+    expect(blocks.events).toEqual({ marks: markCells.slice(1, 5), dates: dateCells.slice(1, 5), address: "Rates!F3:F6", name: "Port strike" });
+    const view = summariseBlocks(blocks);
+    // Serials 45667 and 45681 are Fridays 2025-01-10 and 2025-01-24.
+    expect(view.events).toEqual({ weeks: ["2025-01-10", "2025-01-24"], column: "Port strike", address: "Rates!F3:F6" });
+    const gone = await failure(readSource(context, { ...source, events: "Strike" }));
+    expect(gone.message).toBe("The table WeeklyRates has no column “Strike” any more; pick the event column again.");
+    const undated = await failure(readSource(context, { ...source, dates: null }));
+    expect(undated.message).toBe("The event column “Port strike” marks weeks by the dates beside it; choose the dates column too.");
+  });
+
   it("says so plainly when the table or a column has gone", async () => {
     const { context } = tableWorkbook();
     const noTable = await failure(readSource(context, { kind: "table", table: "Rates2024", rates: LANE, dates: null }));
@@ -196,6 +212,33 @@ describe("readSource: a range", () => {
     });
     expect(syncs).toHaveBeenCalledTimes(3);
     expect(summariseBlocks(blocks).weeks).toBe(6);
+  });
+
+  it("reads an event column to the sheet's last used row, so a dated coming week can be marked; a bad mark names its cell", async () => {
+    const rateCells: Cells = [[LANE], ...rates.map((v) => [v]), [""], [null]];
+    const dateCells: Cells = [["Week ending"], ...DATE_FMT_SERIALS.map((s) => [s]), [45702], [45709]];
+    const markCells: Cells = [["Port strike"], [null], ["x"], [null], [null], [null], [null], [null], ["x"]];
+    const { context, calls } = sheetWorkbook(9, {
+      1: range("Rates!B1:B9", dateCells),
+      2: range("Rates!C1:C9", rateCells),
+      5: range("Rates!F1:F9", markCells),
+    });
+    const source: DataSource = { kind: "range", sheet: "Rates", ratesColumn: 2, datesColumn: 1, top: 0, header: true, eventsColumn: 5 };
+    const blocks = await readSource(context, source);
+    expect(calls[3]).toEqual(["byIndexes", 0, 5, 9, 1]);
+    expect(blocks.values).toHaveLength(7); // the rates still end with the last rate
+    expect(blocks.events).toEqual({ marks: markCells.slice(1), dates: dateCells.slice(1), address: "Rates!F2:F9", name: "Port strike" });
+    // Row 3 (2025-01-10) and row 9, a week not yet priced (serial 45709 = 45660 + 49 days = 2025-02-21).
+    expect(summariseBlocks(blocks).events?.weeks).toEqual(["2025-01-10", "2025-02-21"]);
+    const bad = sheetWorkbook(9, {
+      1: range("Rates!B1:B9", dateCells),
+      2: range("Rates!C1:C9", rateCells),
+      5: range("Rates!F1:F9", [["Port strike"], [null], ["strike"], [null], [null], [null], [null], [null], [null]]),
+    });
+    const e = await failure(readSource(bad.context, source).then((b) => summariseBlocks(b)));
+    expect(describeFailure(e, await readSource(bad.context, source))).toBe(
+      "The event column “Port strike”: “strike” is not a mark; mark each event week with 1 (or x, TRUE) and leave the other weeks blank or 0. (Cell Rates!F3.)",
+    );
   });
 
   it("names a range without a header by its column letter, and starts at its top row", async () => {

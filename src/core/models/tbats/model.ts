@@ -274,14 +274,16 @@ export class TbatsFitted implements Fitted {
         `${set.names.length} calendar regressor${set.names.length > 1 ? "s" : ""} (${set.names.join(", ")}) estimated with the seed states` +
           (p.lambda === null
             ? ", in the rates' own units"
-            : p.lambda === 0
+            : Math.abs(p.lambda) < 5e-4
               ? " on the log scale (a coefficient of −0.10 is about 10% below the rate expected otherwise)"
               : ` on the Box-Cox scale (λ = ${p.lambda.toFixed(3)})`) +
           "; their standard errors take the smoothing parameters as known.",
       );
     }
     if (this.options.converged === false) notes.push("The optimiser stopped at its evaluation budget before meeting its tolerances; the fit is the best point it found.");
-    return { method: "tbats", structure: structureLabel(s, p), parameters, armaDf: s.p + s.q, notes };
+    const m = set ? set.names.length : 0;
+    const label = structureLabel(s, p) + (m > 0 ? ` + ${m} calendar regressor${m > 1 ? "s" : ""}` : "");
+    return { method: "tbats", structure: label, parameters, armaDf: s.p + s.q, notes };
   }
 
   /** Standard errors by parameter name (computed once, on first use; NaN where not defined). */

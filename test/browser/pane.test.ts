@@ -341,7 +341,15 @@ test("Data: the table and its columns are offered, and reading the lane shows it
   expect(rateChoices).toEqual(book.table.columns.filter((c) => c !== DATES));
   expect(await page.locator("#table-rates").inputValue()).toBe(rateChoices[0]);
 
+  // The event column is offered from the same columns, none by default; the rates column is refused in words.
+  expect(await page.locator("#table-events option").allInnerTexts()).toEqual(["None", ...book.table.columns]);
+  expect(await page.locator("#table-events").inputValue()).toBe("");
   await page.selectOption("#table-rates", LANE);
+  await page.selectOption("#table-events", LANE);
+  await page.click("#read-data");
+  await page.waitForFunction(() => !(document.getElementById("data-error") as HTMLElement).hidden, null, { timeout: 15_000 });
+  expect(await text("#data-error")).toBe(`“${LANE}” is already the rates column; choose another column for the event weeks, or none.`);
+  await page.selectOption("#table-events", "");
   await page.click("#read-data");
   await page.waitForFunction(() => /^Read \d+ weeks/.test(document.getElementById("data-status")?.textContent ?? ""), null, { timeout: 15_000 });
   expect(await page.locator("#data-error").isHidden()).toBe(true);

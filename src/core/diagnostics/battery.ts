@@ -1,9 +1,10 @@
 /**
  * The checks that justify a model, run together for analyse(): stationarity (ADF, PP, KPSS
  * on levels, logs and weekly changes, with the order of integration), seasonality (STL
- * strength, ISO-week factors and factors around the lunar new year), nonlinearity (on the series made stationary as the
- * stationarity checks conclude), and the chosen model's residuals. A check that the data
- * cannot support (too short, constant) is skipped with its sentence; the others still run.
+ * strength, ISO-week factors, factors around the lunar new year and of ISO week 53),
+ * nonlinearity (on the series made stationary as the stationarity checks conclude), and the
+ * chosen model's residuals. A check that the data cannot support (too short, constant) is
+ * skipped with its sentence; the others still run.
  */
 import type { ReportTable } from "../report";
 import { isInputError } from "../series/errors";
@@ -20,6 +21,8 @@ export interface CheckTables {
   weekFactors?: ReportTable;
   /** Factors counted from the lunar new year, beside the ISO-week ones of the same weeks. */
   holidayFactors?: ReportTable;
+  /** ISO week 53 on its own (folded into week 52 in weekFactors), one row per 53-week ISO year through the coming one. */
+  week53?: ReportTable;
   /** Mean rate by ISO week (rows) and ISO year (columns): the season's picture (radar chart). */
   weekYear?: ReportTable;
   nonlinearity?: ReportTable;
@@ -81,7 +84,7 @@ export function runChecks(series: WeeklySeries, model?: ModelResiduals, settings
   let adjusted: Float64Array | null = null;
   attempt("Seasonality checks", skipped, () => {
     const s = seasonalityAnalysis(series, settings.seasonKind ? { kind: settings.seasonKind } : {});
-    [tables.seasonStrength, tables.weekFactors, tables.holidayFactors] = s.tables;
+    [tables.seasonStrength, tables.weekFactors, tables.holidayFactors, tables.week53] = s.tables;
     if (s.seasonalReal) adjusted = s.adjusted;
     if (series.dates.length === y.length) tables.weekYear = weekYearTable(series);
   });

@@ -42,7 +42,7 @@ function tablesOf(part: PublishPart, r: Report): [string, ReportTable | undefine
     case "outlook":
       return [["outlook", t.outlook], ["meanAhead", t.meanAhead], ["chance", t.chance]];
     case "season":
-      return [["weekFactors", t.weekFactors], ["holidayFactors", t.holidayFactors], ["seasonStrength", t.seasonStrength]];
+      return [["weekFactors", t.weekFactors], ["holidayFactors", t.holidayFactors], ["week53", t.week53], ["seasonStrength", t.seasonStrength]];
     case "checks":
       return [["stationarity", t.stationarity], ["integration", t.integration], ["nonlinearity", t.nonlinearity], ["residualTests", t.residualTests]];
     case "backtest":

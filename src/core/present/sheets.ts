@@ -92,7 +92,7 @@ function tablesFor(kind: SheetKind, r: Report): [string, ReportTable | undefined
     case "outlook":
       return [["outlook", t.outlook], ["fit", t.fit], ["data", t.data], ["search", t.search]];
     case "season":
-      return [["weekFactors", t.weekFactors], ["holidayFactors", t.holidayFactors], ["modelSeason", t.modelSeason], ["seasonStrength", t.seasonStrength], ["weekYear", t.weekYear]];
+      return [["weekFactors", t.weekFactors], ["holidayFactors", t.holidayFactors], ["week53", t.week53], ["modelSeason", t.modelSeason], ["seasonStrength", t.seasonStrength], ["weekYear", t.weekYear]];
     case "checks":
       return [["stationarity", t.stationarity], ["integration", t.integration], ["nonlinearity", t.nonlinearity], ["residualTests", t.residualTests], ["correlogram", t.correlogram]];
     case "backtest":

@@ -1,6 +1,7 @@
 /**
  * Seasonality diagnostics: STL (Cleveland et al., 1990), seasonal and trend strength
- * (Wang, Smith & Hyndman, 2006), seasonal factors by ISO week, and the week × year table.
+ * (Wang, Smith & Hyndman, 2006), seasonal factors by ISO week (with ISO week 53 on its own),
+ * and the week × year table.
  */
 import type { ReportTable } from "../../report";
 import { WEEKS_PER_YEAR } from "../../series/calendar";
@@ -12,6 +13,7 @@ import { holidayFactors } from "./holidayFactors";
 import type { StlOptions } from "./stl";
 import { stl } from "./stl";
 import { noiseBaseline, stlStrength, strengthTable } from "./strength";
+import { week53Factors } from "./week53";
 
 export { loessAt, loessSmooth } from "./loess";
 export type { StlOptions, StlResult, StlSettings } from "./stl";
@@ -20,6 +22,7 @@ export type { Components, StrengthResult } from "./strength";
 export { BASELINE_REPLICATIONS, STRONG_STRENGTH, WEAK_STRENGTH, clearNoiseBaselineCache, noiseBaseline, stlStrength, strengthTable } from "./strength";
 export type { FactorKind, WeekFactorOptions, WeekFactors } from "./factors";
 export { HOLIDAY_WEEKS, holidayFactors, type HolidayFactors } from "./holidayFactors";
+export { week53Factors, type Week53Factors, type Week53Source } from "./week53";
 export { factorTable, factorsFromSeasonal, logRates, weekFactors, weekFactorsFrom } from "./factors";
 export type { WeekBin } from "./weekYear";
 export { decompositionTable } from "./decomposition";
@@ -41,7 +44,7 @@ export interface SeasonalitySummary {
 
 /**
  * The seasonality tables for analyse(): strength, then (for a dated series) the factors by
- * ISO week, from one STL run with period 52 (plus the seeded noise baseline of strength.ts).
+ * ISO week, around the lunar new year and of ISO week 53, from one STL run with period 52 (plus the seeded noise baseline of strength.ts).
  * When every rate is positive STL runs on log rates and the factors are multiplicative;
  * otherwise on the rates, additive. An undated series gets the strength table only, with a
  * note. Fewer than three years is an InputError (see SEASONALITY_MIN_WEEKS); other
@@ -91,6 +94,7 @@ export function seasonalityAnalysis(series: WeeklySeries, options: StlOptions & 
       : ["The seasonal strength is no higher than white noise would show: read these factors as noise, not as an annual pattern."];
     tables.push(weekFactorsFrom(series.dates, decomposition, kind, caveat).table);
     tables.push(holidayFactors(series.dates, decomposition, kind).table);
+    tables.push(week53Factors(series.dates, decomposition, kind).table);
   }
   const adjusted = new Float64Array(n);
   for (let t = 0; t < n; t++) {

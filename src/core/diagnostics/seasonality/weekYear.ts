@@ -49,7 +49,7 @@ export function requireDates(series: WeeklySeries, what: string): Date[] {
 export function foldNote(years: number[]): string {
   const list = years.join(", ");
   const one = years.length === 1;
-  return `ISO week 53 (in ${list}) is folded into week 52: ${one ? "that year's" : "each such year's"} weeks 52 and 53 are averaged.`;
+  return `ISO week 53 (in ${list}) is folded into week 52: ${one ? "that year's" : "each such year's"} weeks 52 and 53 are averaged; the ISO week 53 table gives that week its own factor.`;
 }
 
 /**

@@ -116,9 +116,9 @@ describe("factors recovered by STL from a known multiplicative pattern", () => {
     expect(max).toBeLessThan(1000);
   });
 
-  test("seasonalitySummary: strength then multiplicative factors (by ISO week and around the lunar new year) from one STL run", () => {
+  test("seasonalitySummary: strength then multiplicative factors (by ISO week, around the lunar new year, of ISO week 53) from one STL run", () => {
     const tables = seasonalitySummary(series(FRIDAYS, values));
-    expect(tables.map((t) => t.title)).toEqual(["Seasonal and trend strength (STL)", "Seasonal factors by ISO week", "Seasonal factors around the lunar new year"]);
+    expect(tables.map((t) => t.title)).toEqual(["Seasonal and trend strength (STL)", "Seasonal factors by ISO week", "Seasonal factors around the lunar new year", "ISO week 53"]);
     expect(tables[0].rows[0][2]).toMatch(/^Strong annual pattern \(seasonal strength 0\.\d\d\)\.$/);
     expect(tables[0].notes.join(" ")).toContain("log rates");
     const direct = weekFactors(series(FRIDAYS, values));
@@ -133,5 +133,6 @@ describe("factors recovered by STL from a known multiplicative pattern", () => {
     const tables = seasonalitySummary(series(FRIDAYS, shifted));
     expect(tables[1].title).toBe("Seasonal effects by ISO week (additive)");
     expect(tables[2].title).toBe("Seasonal effects around the lunar new year (additive)");
+    expect(tables[3].title).toBe("ISO week 53 (additive)");
   });
 });

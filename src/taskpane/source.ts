@@ -169,14 +169,21 @@ function startsWithHeader(blocks: SelectionBlocks): boolean {
 export function withEvents(source: DataSource, text: string): DataSource {
   const t = text.trim();
   if (source.kind === "table") {
-    if (t === "") return { ...source, events: null };
+    // None: the field left out, so settings saved without an event column read as before.
+    if (t === "") {
+      const { events: _none, ...rest } = source;
+      return rest;
+    }
     if (sameName(t, source.rates) || (source.dates !== null && sameName(t, source.dates))) {
       throw new InputError("BAD_OPTION", `“${t}” is already the ${sameName(t, source.rates) ? "rates" : "dates"} column; choose another column for the event weeks, or none.`);
     }
     if (source.dates === null) throw new InputError("BAD_OPTION", "Event weeks marked in a column go by the dates beside them; choose the dates column too.");
     return { ...source, events: t };
   }
-  if (t === "") return { ...source, eventsColumn: null };
+  if (t === "") {
+    const { eventsColumn: _none, ...rest } = source;
+    return rest;
+  }
   if (!/^[A-Za-z]{1,3}$/.test(t) || columnIndex(t) > LAST_COLUMN) {
     throw new InputError("BAD_OPTION", `The event weeks column is a column letter of ${source.sheet}, such as F; got “${t}”.`);
   }

@@ -228,7 +228,8 @@ describe("an event column on a source", () => {
 
   it("is set from a letter (range) or a column name (table), and refused in words when it cannot be", () => {
     expect(withEvents(range, " f ")).toEqual({ ...range, eventsColumn: 5 });
-    expect(withEvents(range, "")).toEqual({ ...range, eventsColumn: null });
+    // None leaves the field out, so the saved source reads as one saved before event columns.
+    expect(withEvents({ ...range, eventsColumn: 5 }, "")).toStrictEqual(range);
     expect(eventsText(withEvents(range, "F"))).toBe("F");
     expect(() => withEvents(range, "C")).toThrow("Column C holds the rates; choose another column for the event weeks, or none.");
     expect(() => withEvents(range, "B")).toThrow("Column B holds the dates; choose another column for the event weeks, or none.");
@@ -237,6 +238,7 @@ describe("an event column on a source", () => {
     expect(withEvents(table, "Port strike")).toEqual({ ...table, events: "Port strike" });
     expect(() => withEvents(table, "week ending")).toThrow("“week ending” is already the dates column; choose another column for the event weeks, or none.");
     expect(eventsText(table)).toBe("");
+    expect(withEvents({ ...table, events: "Port strike" }, " ")).toStrictEqual(table);
   });
 
   it("is saved and read back (older settings without it still read), is watched, follows a table's columns, and does not make another series", () => {

@@ -139,6 +139,18 @@ describe("error mapping", () => {
   });
 });
 
+/** Three years of an invented lane, weeks ending Friday from 2022-01-07, with +200 jumps in weeks 20, 70 and 120. */
+function jumpLane() {
+  const n = 3 * 52;
+  const start = Date.UTC(2022, 0, 7);
+  const weekDates = Array.from({ length: n }, (_, t) => new Date(start + t * 7 * 86_400_000));
+  const jumps = [20, 70, 120];
+  const lane = weekDates.map((_, t) => [1500 + 2 * t + 30 * Math.sin(0.9 * t) + (jumps.includes(t) ? 200 : 0)]);
+  const serial = (d: Date): number => (d.getTime() - Date.UTC(1899, 11, 30)) / 86_400_000;
+  const serials = weekDates.map((d) => [serial(d)]);
+  return { n, start, weekDates, jumps, lane, serial, serials };
+}
+
 describe("OUTLOOK", () => {
   // 2025-01-01 is Excel serial 45658 (1900 date system; =DATE(2025,1,1) in Excel, from
   // memory), so the Fridays 2025-01-03 … 2025-01-31 are 45660 + 7k.
@@ -203,13 +215,7 @@ describe("OUTLOOK", () => {
   }, 60_000);
 
   it("event weeks: a range of dates becomes SARIMA's event regressor, as analyse() with calendar.events; bad cells and weeks outside the rates are #VALUE!", async () => {
-    const n = 3 * 52;
-    const start = Date.UTC(2022, 0, 7);
-    const weekDates = Array.from({ length: n }, (_, t) => new Date(start + t * 7 * 86_400_000));
-    const jumps = [20, 70, 120];
-    const lane = weekDates.map((_, t) => [1500 + 2 * t + 30 * Math.sin(0.9 * t) + (jumps.includes(t) ? 200 : 0)]);
-    const serial = (d: Date): number => (d.getTime() - Date.UTC(1899, 11, 30)) / 86_400_000;
-    const serials = weekDates.map((d) => [serial(d)]);
+    const { n, start, weekDates, jumps, lane, serial, serials } = jumpLane();
     // A column of event dates with a blank, one given as text and one a coming week.
     const events = [[serial(weekDates[20])], [""], [serial(weekDates[70])], ["2024-05-21"], [serial(new Date(start + (n + 1) * 7 * 86_400_000))]];
     const out = await outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, events);
@@ -230,13 +236,7 @@ describe("OUTLOOK", () => {
   }, 60_000);
 
   it("event weeks as a column of marks beside the dates (header on top allowed) equal the same weeks listed as dates; TBATS takes them too", async () => {
-    const n = 3 * 52;
-    const start = Date.UTC(2022, 0, 7);
-    const weekDates = Array.from({ length: n }, (_, t) => new Date(start + t * 7 * 86_400_000));
-    const jumps = [20, 70, 120];
-    const lane = weekDates.map((_, t) => [1500 + 2 * t + 30 * Math.sin(0.9 * t) + (jumps.includes(t) ? 200 : 0)]);
-    const serial = (d: Date): number => (d.getTime() - Date.UTC(1899, 11, 30)) / 86_400_000;
-    const serials = weekDates.map((d) => [serial(d)]);
+    const { n, start, weekDates, jumps, lane, serial, serials } = jumpLane();
     const marks = weekDates.map((_, t) => [t === 20 ? 1 : t === 70 ? "x" : t === 120 ? true : t % 2 === 0 ? 0 : ""]);
     const listed = jumps.map((t) => [serial(weekDates[t])]);
     const byMarks = await outlook(lane, 4, "sarima", OMITTED, serials, OMITTED, OMITTED, marks);

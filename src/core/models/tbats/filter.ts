@@ -185,39 +185,11 @@ export class SeedRegression {
     }
     const R = this.R;
     const E = this.E;
+    // The errors of one filter pass from the reference seed, then the regression rows, which
+    // do not depend on the states: r_1 = w, r_{t+1}ᵀ = r_tᵀ D (module comment).
+    errorsOfInput(L, par, g1, g2, z, n, x, E);
     for (let t = 0; t < n; t++) {
-      // Filter step from x_{t−1}.
-      let arma = 0;
-      for (let j = 0; j < p; j++) arma += ar[j] * x[a0 + j];
-      for (let j = 0; j < q; j++) arma += ma[j] * x[m0 + j];
-      const l = x[0];
-      const b = hasTrend ? x[1] : 0;
-      let pred = l + phi * b + arma;
-      for (let h = 0; h < H; h++) pred += x[sIdx[h]];
-      const e = z[t] - pred;
-      const d = arma + e;
-      x[0] = l + phi * b + alpha * d;
-      if (hasTrend) x[1] = phi * b + beta * d;
-      for (let h = 0; h < H; h++) {
-        const i = sIdx[h];
-        const j = sStar[h];
-        const s = x[i];
-        const ss = x[j];
-        x[i] = cs[h] * s + sn[h] * ss + g1[h] * d;
-        x[j] = -sn[h] * s + cs[h] * ss + g2[h] * d;
-      }
-      if (p > 0) {
-        for (let j = p - 1; j > 0; j--) x[a0 + j] = x[a0 + j - 1];
-        x[a0] = d;
-      }
-      if (q > 0) {
-        for (let j = q - 1; j > 0; j--) x[m0 + j] = x[m0 + j - 1];
-        x[m0] = e;
-      }
-      // Regression rows, stored by column for the Gram products after the pass.
-      E[t] = e;
       for (let i = 0; i < k; i++) R[i * n + t] = r[i];
-      // r_{t+1}ᵀ = r_tᵀ D (module comment).
       const rl = r[0];
       const rb = hasTrend ? r[1] : 0;
       const re1 = q > 0 ? r[m0] : 0;
@@ -306,6 +278,7 @@ export class SeedRegression {
     const pulses = this.pulses as (Int32Array | null)[];
     if (pulses.some((p) => p !== null)) {
       if (this.impulse.length !== n) this.impulse = new Float64Array(n);
+      this.x.fill(0);
       errorsOfInput(this.L, par, this.g1, this.g2, null, n, this.x, this.impulse);
     }
     const h = this.impulse;
@@ -313,6 +286,7 @@ export class SeedRegression {
       const o = at + j * n;
       const p = pulses[j];
       if (p === null) {
+        this.x.fill(0);
         errorsOfInput(this.L, par, this.g1, this.g2, U.subarray(j * n, (j + 1) * n), n, this.x, R.subarray(o, o + n));
         continue;
       }
@@ -369,10 +343,12 @@ export class SeedRegression {
 }
 
 /**
- * The one-step errors of the filter for input `u` from a zero state, x_t = D x_{t−1} + g u_t,
- * c_t = u_t − wᵀx_{t−1} (the same arithmetic as the pass in SeedRegression.sse, without the
- * regression rows); `u` null is the unit pulse at t = 0, whose errors are the impulse response.
- * `x` is scratch of the state's size; `g1`, `g2` the per-harmonic γ (harmonicGammas).
+ * The one-step errors of the filter for input `u` from the state in `x`, x_t = D x_{t−1} + g u_t,
+ * c_t = u_t − wᵀx_{t−1}: the series' own pass from the reference seed (SeedRegression.sse), and
+ * the regressors' from a zero state; `u` null is the unit pulse at t = 0, whose errors are the
+ * impulse response.
+ * `x` holds the starting state (overwritten: the state after the last week); `g1`, `g2` the
+ * per-harmonic γ (harmonicGammas).
  */
 function errorsOfInput(L: StateLayout, par: TbatsParameters, g1: Float64Array, g2: Float64Array, u: Float64Array | null, n: number, x: Float64Array, out: Float64Array): void {
   const H = L.harmonicCount;
@@ -386,7 +362,6 @@ function errorsOfInput(L: StateLayout, par: TbatsParameters, g1: Float64Array, g
   const q = ma.length;
   const a0 = L.arStart;
   const m0 = L.maStart;
-  x.fill(0);
   for (let t = 0; t < n; t++) {
     let arma = 0;
     for (let j = 0; j < p; j++) arma += ar[j] * x[a0 + j];

@@ -5,53 +5,17 @@
  * recovers it and forecasts across the next holiday improve; with none, the coefficients stay
  * near zero and forecasts are not worse beyond noise.
  */
+import { coefficient, DIP, lastWindowStart, simulate, START, WEEK, WINDOW_NAMES } from "../holidaySimulation";
 import { getModel } from "../../../../src/core/models/registry";
-import { MersenneTwister } from "../../../../src/core/math/rng";
-import { lunarOffset } from "../../../../src/core/series/lunarRegressors";
-import { lunarNewYear } from "../../../../src/core/series/lunar";
 import type { Fitted } from "../../../../src/core/models/types";
 import { planBacktest } from "../../../../src/core/evaluate/plan";
 import { analyse } from "../../../../src/core/analysis";
-
-const START = "2014-01-03"; // a Friday
-const WEEK = 7 * 86_400_000;
-/** The simulated effect on log rates, by week offset from the holiday (0 = the week holding it). */
-const DIP: Record<number, number> = { 0: -0.12, 1: -0.15, 2: -0.06 };
-
-function simulate(seed: number, n: number, effect: boolean): Float64Array {
-  const rng = new MersenneTwister(seed);
-  const start = Date.parse(`${START}T00:00:00Z`);
-  const y = new Float64Array(n);
-  let e = 0;
-  for (let t = 0; t < n; t++) {
-    e = 0.7 * e + 0.03 * rng.normal();
-    const k = lunarOffset(new Date(start + t * WEEK));
-    const dip = effect ? (DIP[k] ?? 0) : 0;
-    y[t] = Math.exp(7.5 + 0.08 * Math.sin((2 * Math.PI * t) / (365.25 / 7)) + e + dip);
-  }
-  return y;
-}
 
 const sarima = getModel("sarima");
 // Structure held fixed (AR(1) with a mean and 2 Fourier pairs, on logs), so the comparison is
 // of the regressors alone, not of two different searches.
 const FIXED = { structure: { p: 1, d: 0, q: 0 }, pairs: 2, constant: true, lambda: 0 };
 const CALENDAR = { calendar: { start: START, lunarNewYear: { before: 1, after: 3 } } };
-
-function coefficient(f: Fitted, name: string): { value: number; se: number } {
-  const p = f.summary().parameters.find((x) => x.name === name);
-  if (!p || p.se === undefined || p.se === null) throw new Error(`no coefficient ${name}`);
-  return { value: p.value, se: p.se };
-}
-
-/** Index of the first week of the holiday window (offset −1) in the last year of a series of n weeks. */
-function lastWindowStart(n: number): number {
-  const start = Date.parse(`${START}T00:00:00Z`);
-  const lastYear = new Date(start + (n - 1) * WEEK).getUTCFullYear();
-  const l = lunarNewYear(lastYear).getTime();
-  for (let t = n - 1; t >= 0; t--) if (start + t * WEEK < l - 7 * 86_400_000) return t + 1;
-  throw new Error("no window");
-}
 
 describe("SARIMA with lunar-new-year regressors", () => {
   const n = 9 * 52 + 20; // nine years and into February of the tenth
@@ -97,7 +61,7 @@ describe("SARIMA with lunar-new-year regressors", () => {
     for (const seed of [21, 22, 23, 24, 25]) {
       const y = simulate(seed, n, false);
       const fit = sarima.fit(y.slice(0, cut), { ...FIXED, ...CALENDAR });
-      for (const name of ["Lunar new year week −1", "Lunar new year week", "Lunar new year week +1", "Lunar new year week +2", "Lunar new year week +3"]) {
+      for (const name of WINDOW_NAMES) {
         const c = coefficient(fit, name);
         count++;
         if (Math.abs(c.value) > 2.5 * c.se) outside++;

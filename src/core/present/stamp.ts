@@ -35,9 +35,9 @@ export function optionsPhrase(o: ResolvedOptions): string {
   const parts = [`${o.horizon} weeks ahead`, `coverage ${o.levels.map((l) => `${l}%`).join(", ")}`];
   parts.push(o.checks ? "checks on" : "checks off");
   const lny = o.calendar?.lunarNewYear;
-  if (lny) parts.push(`lunar-new-year weeks −${lny.before} to +${lny.after} as regressors (SARIMA)`);
+  if (lny) parts.push(`lunar-new-year weeks −${lny.before} to +${lny.after} as regressors (SARIMA, TBATS)`);
   const events = o.calendar?.events ?? [];
-  if (events.length > 0) parts.push(`${events.length} event week${events.length === 1 ? "" : "s"} as a regressor (SARIMA): ${events.length <= 4 ? events.join(", ") : `${events.slice(0, 3).join(", ")} … ${events[events.length - 1]}`}`);
+  if (events.length > 0) parts.push(`${events.length} event week${events.length === 1 ? "" : "s"} as a regressor (SARIMA, TBATS): ${events.length <= 4 ? events.join(", ") : `${events.slice(0, 3).join(", ")} … ${events[events.length - 1]}`}`);
   if (o.backtest || o.method === "auto") {
     const b = o.backtest ?? {};
     const modes = (b.modes ?? ["every"]).map((m) => modePhrase(m)).join("; ");

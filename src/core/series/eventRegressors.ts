@@ -3,8 +3,9 @@
  * of their own trade) as one 0/1 calendar regressor: 1 in each listed week, 0 elsewhere, for
  * history and forecast weeks alike. A listed date marks the week that contains it: the week
  * ending e covers e − 6 … e, the same rule as the lunar-new-year weeks (lunarRegressors.ts).
- * One column, so every listed week shares one estimated effect; the regression with ARMA
- * errors (SARIMA) estimates it with its standard error.
+ * One column, so every listed week shares one estimated effect; SARIMA (regression with ARMA
+ * errors) and TBATS (on the transformed scale) estimate it with its standard error. The weeks
+ * come as a list of dates or from a column of marks beside the dates (eventWeeksFromMarks).
  */
 import type { RegressorSet } from "../models/sarima/spec";
 import { isoDate, MS_PER_DAY } from "./calendar";

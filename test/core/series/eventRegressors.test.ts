@@ -97,7 +97,7 @@ describe("event weeks", () => {
     const series = { dates: Array.from({ length: N }, (_, t) => new Date(start.getTime() + t * WEEK)), values: y, filled: new Array<boolean>(N).fill(false), warnings: [] };
     const r = analyse(series, { method: "lastweek", horizon: 4, checks: false, calendar: { events: ["2019-08-01", "2019-08-02"] } });
     expect(r.options.calendar.events).toEqual([weekEnding(30)]);
-    expect(optionsPhrase(r.options)).toContain(`1 event week as a regressor (SARIMA): ${weekEnding(30)}`);
+    expect(optionsPhrase(r.options)).toContain(`1 event week as a regressor (SARIMA, TBATS): ${weekEnding(30)}`);
     expect(r.warnings).toContain("Event weeks are used by SARIMA and TBATS only; Last week was fitted without them.");
     expect(() => analyse(series, { method: "sarima", calendar: { events: ["2030-01-01"] } })).toThrow(
       `None of the event weeks falls within the rates (${START} to ${weekEnding(N - 1)}), so their effect cannot be estimated; list at least one past week.`,

@@ -152,3 +152,27 @@ describe("event weeks marked in a column", () => {
     expect(() => eventWeeksFromMarks({ marks: [0, null], dates, what: 'The event column "Strike"' })).toThrow('The event column "Strike": no week is marked; put 1 (or x) in the rows of the event weeks.');
   });
 });
+
+describe("event weeks first seen after a fit", () => {
+  test("a re-estimation over weeks that hold the first event week adds its column (SARIMA and TBATS); an update without one keeps the fit's columns", () => {
+    const y = simulate(5, true);
+    const events = eventWeekEndings(start, LISTED);
+    const calendar = { calendar: { start: START, events } };
+    // The first jump is week 30: a fit on 25 weeks has no event column; 40 weeks later it should.
+    const names = (f: Fitted): string[] => f.summary().parameters.map((p) => p.name);
+    const fits: [string, Fitted][] = [
+      ["SARIMA", getModel("sarima").fit(y.slice(0, 25), { structure: { p: 1, d: 0, q: 0 }, pairs: 0, constant: true, lambda: 0, ...calendar })],
+      ["TBATS", autoTbats(y.slice(0, 25), { lambda: 0, trend: false, harmonics: [0], arma: { p: 1, q: 0 }, ...calendar })],
+    ];
+    for (const [, fit] of fits) {
+      expect(names(fit)).not.toContain(EVENT_COLUMN);
+      expect(names(fit.update(y.slice(25, 65), { reestimate: false }))).not.toContain(EVENT_COLUMN);
+      const grown = fit.update(y.slice(25, 65), { reestimate: true });
+      expect(names(grown)).toContain(EVENT_COLUMN);
+      // One jump (week 30) and one more (week 61) in 65 weeks: the estimate is near +0.15 to
+      // within a few standard errors of two weeks' noise (s.e. about 0.03/√2 ≈ 0.02).
+      const c = coefficient(grown, EVENT_COLUMN);
+      expect(Math.abs(c.value - JUMP)).toBeLessThan(4 * c.se);
+    }
+  });
+});

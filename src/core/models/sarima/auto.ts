@@ -66,6 +66,11 @@ export interface SarimaOptions {
   calendar?: CalendarSpec;
 }
 
+/** The calendar a fit keeps for its re-estimations (none when the caller gave its own columns). */
+function calendarOf(options: SarimaOptions): { calendar?: CalendarSpec } {
+  return options.calendar && !options.extra ? { calendar: options.calendar } : {};
+}
+
 /** Fewest weeks for seasonal terms: two full years plus room for the ARMA part. */
 export const SEASONAL_MIN_WEEKS = 2 * WEEKS_PER_YEAR + 12;
 /** Fewest weeks for any ARIMA fit. */
@@ -211,7 +216,7 @@ export function autoSarima(y: Float64Array, options: SarimaOptions = {}): Sarima
       validateSpec(spec);
       const prep = prepare(z, spec);
       const est = estimate(prep);
-      const fit = new SarimaFitted(y, prep, est, { biasAdjust: options.biasAdjust });
+      const fit = new SarimaFitted(y, prep, est, { biasAdjust: options.biasAdjust, ...calendarOf(options) });
       if (!Number.isFinite(fit.aicc)) cand = { spec, fit: null, aicc: Infinity, why: "too few weeks" };
       else if (!admissible(fit)) cand = { spec, fit: null, aicc: Infinity, why: "a root on the edge of the unit circle" };
       else cand = { spec, fit, aicc: fit.aicc };
@@ -325,13 +330,13 @@ export function autoSarima(y: Float64Array, options: SarimaOptions = {}): Sarima
     const prep = prepare(z, plain);
     const reasons = [...tried.values()].map((c) => c.why).filter(Boolean);
     notes.push(`No searched model could be fitted (${reasons[0] ?? "unknown reason"}); ${orderLabel(plain)} is used.`);
-    return new SarimaFitted(y, prep, estimate(prep), { notes, biasAdjust: options.biasAdjust });
+    return new SarimaFitted(y, prep, estimate(prep), { notes, biasAdjust: options.biasAdjust, ...calendarOf(options) });
   }
   notes.unshift(`Chosen by AICc among ${fits} fitted structures.`);
   const candidates = [...tried.values()]
     .filter((c) => Number.isFinite(c.aicc))
     .map((c) => ({ structure: describe(c.spec), aicc: c.aicc }));
-  return new SarimaFitted(y, best.fit.prep, best.fit.est, { notes, candidates, biasAdjust: options.biasAdjust });
+  return new SarimaFitted(y, best.fit.prep, best.fit.est, { notes, candidates, biasAdjust: options.biasAdjust, ...calendarOf(options) });
 }
 
 function describe(s: SarimaSpec): string {

@@ -23,7 +23,8 @@ import { centralHessian } from "../../math/optimise";
 import { symmetricInverse } from "../../math/symmetric";
 import { adjustedInnovation, armaFilter, logLikAtSigma2 } from "./filter";
 import { expandAr, expandMa, multiplyAr, psiWeights } from "./polynomial";
-import { orderLabel, regressorColumns, validateSpec, type SarimaSpec } from "./spec";
+import { orderLabel, regressorColumns, validateSpec, type RegressorSet, type SarimaSpec } from "./spec";
+import { calendarRegressors, type CalendarSpec } from "../../series/calendarRegressors";
 
 export interface SarimaFitOptions {
   /** Point forecast as the bias-adjusted mean instead of the median (Box-Cox only). */
@@ -32,6 +33,17 @@ export interface SarimaFitOptions {
   notes?: string[];
   /** Every candidate tried by the automatic search, for the summary. */
   candidates?: { structure: string; aicc: number }[];
+  /**
+   * The calendar the regressors came from: a re-estimation over more weeks builds them again,
+   * so an event week first seen in the new weeks joins (as a backtest re-estimated every week
+   * sees a strike after its first origin).
+   */
+  calendar?: CalendarSpec;
+}
+
+/** Whether two regressor sets have the same columns (by name). */
+function sameColumns(a: RegressorSet | undefined, b: RegressorSet | undefined): boolean {
+  return (a?.names ?? []).join("\u0000") === (b?.names ?? []).join("\u0000");
 }
 
 export class SarimaFitted implements Fitted {
@@ -228,11 +240,14 @@ export class SarimaFitted implements Fitted {
     const y = appendWeeks(this.y, newY, "SARIMA");
     const spec = this.spec;
     const z = spec.lambda === null ? Float64Array.from(y) : boxCoxTransform(y, spec.lambda);
-    const prep = prepare(z, spec);
     if (options.reestimate) {
+      // β is profiled out of the likelihood, so the ARMA start carries over whatever the columns.
+      const grown = this.options.calendar ? calendarRegressors(this.options.calendar, y.length) : spec.extra;
+      const prep = prepare(z, sameColumns(grown, spec.extra) ? spec : { ...spec, extra: grown });
       const est = estimate(prep, { start: this.est.x });
       return new SarimaFitted(y, prep, est, this.options);
     }
+    const prep = prepare(z, spec);
     // Fixed parameters: filter the longer series with the same coefficients, β and σ².
     const evaluation = evaluate(prep, this.est.coefficients, this.est.beta);
     const est: Estimate = {

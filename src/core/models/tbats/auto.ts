@@ -321,7 +321,7 @@ export function autoTbats(y: Float64Array, options: TbatsOptions = {}): TbatsFit
     best.structure,
     best.par,
     best.seed,
-    { ...best.options, notes, candidates: search.candidates },
+    { ...best.options, notes, candidates: search.candidates, ...(options.calendar && !options.extra ? { calendar: options.calendar } : {}) },
     undefined,
     best.coef,
   );

@@ -16,6 +16,7 @@ import type { Rng } from "../../math/rng";
 import { appendWeeks, checkHorizon, checkLevels } from "../arguments";
 import type { ReportTable } from "../../report";
 import type { RegressorSet } from "../sarima/spec";
+import { calendarRegressors, type CalendarSpec } from "../../series/calendarRegressors";
 import type { FitSummary, Fitted, Forecast, ParameterRow, SearchedStructure, UpdateOptions } from "../types";
 import { tbatsWeekFactors } from "./factors";
 import { advance, filterPass, predictFrom, type FilterPass } from "./filter";
@@ -38,6 +39,11 @@ export interface TbatsFitOptions {
   converged?: boolean;
   /** Calendar regressors by week index (0 = the first fitted week), on the transformed scale. */
   regressors?: RegressorSet;
+  /**
+   * The calendar the regressors came from: a re-estimation over more weeks builds them again,
+   * so an event week first seen in the new weeks joins (a backtest re-estimated every week).
+   */
+  calendar?: CalendarSpec;
 }
 
 /** The regressors' values over weeks 0 … n − 1, by column. */
@@ -221,7 +227,9 @@ export class TbatsFitted implements Fitted {
       // Same parameters and seeds, filtered over the longer series; σ² kept as estimated.
       return new TbatsFitted(y, this.structure, this.par, this.seed, { ...this.options, candidates: [] }, this.sigma2, this.coef);
     }
-    return fitTbatsStructure(y, this.structure, { ...this.options, start: this.par, fixedLambda: this.par.lambda, candidates: [] });
+    const grown = this.options.calendar ? calendarRegressors(this.options.calendar, y.length) : this.options.regressors;
+    const { regressors: _old, ...rest } = this.options;
+    return fitTbatsStructure(y, this.structure, { ...rest, ...(grown ? { regressors: grown } : {}), start: this.par, fixedLambda: this.par.lambda, candidates: [] });
   }
 
   /**

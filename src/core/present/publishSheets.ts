@@ -2,7 +2,8 @@
  * What a Publish writes, computed once for every sink: the snapshot sheet, the log's append
  * plan, and the track record of the log as it will stand; and the track record alone, which a
  * run over a book that keeps a log rewrites. The pane and the batch runner only read the log
- * before and write these after (their own Office.js or exceljs code).
+ * before and write these after, each with its own workbook code (the pane under
+ * src/taskpane/excel, the batch runner through exceljs).
  */
 import { appendPlan, logEntries, type AppendPlan, type LogEntry, type LogReading } from "../record/log";
 import { actualsOf, trackRecord, type TrackRecord } from "../record/track";

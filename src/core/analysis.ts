@@ -53,15 +53,15 @@ export interface AnalysisOptions {
   seasonKind?: FactorKind;
   /**
    * Calendar regressors: `lunarNewYear` true (the default window) or a window of weeks before
-   * and after the holiday (series/lunarRegressors.ts). Used by SARIMA, in the fit and in the
-   * backtest; needs dates. Default: none.
+   * and after the holiday (series/lunarRegressors.ts). Used by SARIMA and TBATS, in the fit and
+   * in the backtest (which also scores each without them); needs dates. Default: none.
    */
   calendar?: {
     lunarNewYear?: boolean | Partial<LunarWindow>;
     /**
      * Event weeks of the desk's own (dates written YYYY-MM-DD, any day of the week; past and
-     * future): one 0/1 regressor for SARIMA (series/eventRegressors.ts). Needs dates, and at
-     * least one listed week within the rates.
+     * future): one 0/1 regressor for SARIMA and TBATS (series/eventRegressors.ts). Needs dates,
+     * and at least one listed week within the rates.
      */
     events?: string[];
   };

@@ -110,7 +110,6 @@ export function readRefit(v: unknown): RefitMode {
   throw new ArgumentError("#VALUE!", `Re-estimation is "every" (every week), "fixed" (never) or a number of weeks; got ${describe(x)}.`);
 }
 
-/** The header-row switch: TRUE, 1 or "yes" puts the column names on top; default no header. */
 /** A TRUE/FALSE argument (also 1/0, "yes"/"no"); omitted is FALSE. `what` names it in the error. */
 export function readSwitch(v: unknown, what: string): boolean {
   const x = single(v);
@@ -122,6 +121,7 @@ export function readSwitch(v: unknown, what: string): boolean {
   throw new ArgumentError("#VALUE!", `${what} is TRUE or FALSE; got ${describe(x)}.`);
 }
 
+/** The header-row switch: TRUE, 1 or "yes" puts the column names on top; default no header. */
 export function readHeaders(v: unknown): boolean {
   return readSwitch(v, "The header switch");
 }

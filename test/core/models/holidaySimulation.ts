@@ -5,6 +5,8 @@
  */
 import { MersenneTwister } from "../../../src/core/math/rng";
 import type { Fitted } from "../../../src/core/models/types";
+import type { Report } from "../../../src/core/analysis";
+import type { WeeklySeries } from "../../../src/core/series/types";
 import { lunarNewYear } from "../../../src/core/series/lunar";
 import { lunarOffset } from "../../../src/core/series/lunarRegressors";
 
@@ -45,3 +47,19 @@ export function lastWindowStart(n: number): number {
 
 /** The window's coefficient names, offsets −1 … +3. */
 export const WINDOW_NAMES = ["Lunar new year week −1", "Lunar new year week", "Lunar new year week +1", "Lunar new year week +2", "Lunar new year week +3"];
+
+/** The simulated rates as a dated weekly series (weeks ending Friday from START). */
+export function datedSeries(y: Float64Array): WeeklySeries {
+  const start = Date.parse(`${START}T00:00:00Z`);
+  const n = y.length;
+  return { dates: Array.from({ length: n }, (_, t) => new Date(start + t * WEEK)), values: y, filled: new Array<boolean>(n).fill(false), warnings: [] };
+}
+
+/** A method's backtest MASE averaged over its rows of the accuracy table (one per week ahead), and how many rows. */
+export function backtestMase(report: Report, label: string): { mean: number; rows: number } {
+  const t = report.tables.backtest;
+  if (!t) throw new Error("no backtest");
+  const col = (c: string): number => t.columns.indexOf(c);
+  const rows = t.rows.filter((x) => x[col("Method")] === label);
+  return { mean: rows.reduce((a, x) => a + Number(x[col("MASE")]), 0) / rows.length, rows: rows.length };
+}

@@ -87,7 +87,10 @@ export class TbatsFitted implements Fitted {
   readonly coef: Float64Array;
   readonly effect: Float64Array;
   private readonly regressorCount: number;
+  /** The regressors over the fitted weeks, built once (for βᵀu and the standard errors). */
+  private readonly data: Regressors | null;
   private errorCache?: Map<string, number>;
+  private coefErrorCache?: Float64Array;
 
   constructor(
     readonly y: Float64Array,
@@ -111,12 +114,15 @@ export class TbatsFitted implements Fitted {
     if (set && (!coef || coef.length !== this.regressorCount)) throw new Error("TbatsFitted: regressors need one coefficient each");
     this.coef = set && coef ? Float64Array.from(coef) : new Float64Array(0);
     this.effect = new Float64Array(n);
+    this.data = set ? regressorColumns(set, n) : null;
     const adjusted = Float64Array.from(this.z);
-    if (set) {
-      for (let t = 0; t < n; t++) {
-        this.effect[t] = this.effectAt(t);
-        adjusted[t] -= this.effect[t];
+    if (this.data) {
+      const cols = this.data.columns;
+      for (let j = 0; j < this.regressorCount; j++) {
+        const b = this.coef[j];
+        for (let t = 0; t < n; t++) this.effect[t] += b * cols[j * n + t];
       }
+      for (let t = 0; t < n; t++) adjusted[t] -= this.effect[t];
     }
     this.pass = filterPass(this.layout, par, adjusted, seed);
     let sse = 0;
@@ -296,27 +302,27 @@ export class TbatsFitted implements Fitted {
 
   /** Standard errors by parameter name (computed once, on first use; NaN where not defined). */
   parameterErrors(): Map<string, number> {
-    if (!this.errorCache) this.errorCache = standardErrors(this.y, this.structure, this.par, this.regressorData());
+    if (!this.errorCache) this.errorCache = standardErrors(this.y, this.structure, this.par, this.data);
     return this.errorCache;
-  }
-
-  private regressorData(): Regressors | null {
-    return this.options.regressors ? regressorColumns(this.options.regressors, this.n) : null;
   }
 
   /**
    * Standard errors of β given the other parameters: σ̂²·[(XᵀX)⁻¹]_jj of the regression that
    * concentrates the seeds and β (filter.ts), σ̂² = SSE/n; NaN where the regression is singular.
+   * Computed once, on first use (summary() is called by every table that names the model).
    */
   private coefficientErrors(): Float64Array {
-    const data = this.regressorData();
+    if (this.coefErrorCache) return this.coefErrorCache;
+    const data = this.data;
     if (!data) return new Float64Array(0);
     const obj = new Objective(prepare(this.y), this.structure, data);
     const sse = obj.sse(this.par);
     const out = new Float64Array(data.count).fill(NaN);
-    if (!(sse > 0)) return out;
-    const diag = obj.reg.coefficientInverseDiagonal();
-    for (let j = 0; j < data.count; j++) out[j] = Math.sqrt((sse / this.n) * diag[j]);
+    if (sse > 0) {
+      const diag = obj.reg.coefficientInverseDiagonal();
+      for (let j = 0; j < data.count; j++) out[j] = Math.sqrt((sse / this.n) * diag[j]);
+    }
+    this.coefErrorCache = out;
     return out;
   }
 

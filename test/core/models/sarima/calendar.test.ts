@@ -5,7 +5,7 @@
  * recovers it and forecasts across the next holiday improve; with none, the coefficients stay
  * near zero and forecasts are not worse beyond noise.
  */
-import { coefficient, DIP, lastWindowStart, simulate, START, WEEK, WINDOW_NAMES } from "../holidaySimulation";
+import { backtestMase, coefficient, datedSeries, DIP, lastWindowStart, simulate, START, WINDOW_NAMES } from "../holidaySimulation";
 import { getModel } from "../../../../src/core/models/registry";
 import type { Fitted } from "../../../../src/core/models/types";
 import { planBacktest } from "../../../../src/core/evaluate/plan";
@@ -82,14 +82,7 @@ describe("SARIMA with lunar-new-year regressors", () => {
 
 describe("analyse() with calendar: { lunarNewYear }", () => {
   const n = 9 * 52 + 20;
-  const y = simulate(31, n, true);
-  const start = Date.parse(`${START}T00:00:00Z`);
-  const series = {
-    dates: Array.from({ length: n }, (_, t) => new Date(start + t * WEEK)),
-    values: y,
-    filled: new Array<boolean>(n).fill(false),
-    warnings: [],
-  };
+  const series = datedSeries(simulate(31, n, true));
 
   test("SARIMA's fit table carries the holiday weeks; its backtest is more accurate than without them", () => {
     const bt = { methods: ["sarima"], testWeeks: 20, horizon: 4, modes: ["fixed" as const], methodOptions: { sarima: FIXED } };
@@ -113,13 +106,10 @@ describe("analyse() with calendar: { lunarNewYear }", () => {
   test("one backtest scores SARIMA with and without the holiday weeks side by side, and auto takes the better", () => {
     const bt = { methods: ["sarima", "lastweek"], testWeeks: 20, horizon: 4, modes: ["fixed" as const], methodOptions: { sarima: FIXED } };
     const r = analyse(series, { method: "auto", horizon: 8, checks: false, calendar: { lunarNewYear: true }, backtest: bt });
-    const t = r.tables.backtest;
-    if (!t) throw new Error("no backtest");
-    const col = (c: string): number => t.columns.indexOf(c);
     const mase = (label: string): number => {
-      const rows = t.rows.filter((x) => x[col("Method")] === label);
-      expect(rows).toHaveLength(4);
-      return rows.reduce((a, x) => a + Number(x[col("MASE")]), 0) / rows.length;
+      const m = backtestMase(r, label);
+      expect(m.rows).toBe(4);
+      return m.mean;
     };
     // The simulated holiday dip is there to find: the regressors make the holiday weeks forecastable.
     expect(mase("Seasonal ARIMA")).toBeLessThan(mase("Seasonal ARIMA without calendar effects"));
@@ -154,8 +144,7 @@ describe("a combination with calendar: { lunarNewYear }", () => {
   test("its SARIMA member is fitted with the holiday weeks, as in its backtest", () => {
     const n = 9 * 52 + 20;
     const y = simulate(41, n, true);
-    const start = Date.parse(`${START}T00:00:00Z`);
-    const series = { dates: Array.from({ length: n }, (_, t) => new Date(start + t * WEEK)), values: y, filled: new Array<boolean>(n).fill(false), warnings: [] };
+    const series = datedSeries(y);
     const calendar = { lunarNewYear: true };
     const bt = { methods: ["sarima", "lastweek", "combo"], comboMembers: ["sarima", "lastweek"], testWeeks: 8, horizon: 2, modes: ["fixed" as const] };
     const combo = analyse(series, { method: "combo", horizon: 6, checks: false, calendar, backtest: bt });

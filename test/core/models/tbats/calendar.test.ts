@@ -6,7 +6,7 @@
  * the coefficients stay near zero and forecasts are not worse beyond noise. The exactness of the
  * joint seed/β least squares is checked densely in dense.test.ts (f).
  */
-import { coefficient, DIP, lastWindowStart, simulate, START, WEEK, WINDOW_NAMES } from "../holidaySimulation";
+import { backtestMase, coefficient, datedSeries, DIP, lastWindowStart, simulate, START, WINDOW_NAMES } from "../holidaySimulation";
 import { MersenneTwister as Rng } from "../../../../src/core/math/rng";
 import { autoTbats } from "../../../../src/core/models/tbats/auto";
 import type { Fitted } from "../../../../src/core/models/types";
@@ -115,21 +115,16 @@ describe("TBATS with lunar-new-year regressors", () => {
 
 describe("analyse() with TBATS and calendar: { lunarNewYear }", () => {
   const n = 9 * 52 + 20;
-  const y = simulate(41, n, true);
-  const start = Date.parse(`${START}T00:00:00Z`);
-  const series = { dates: Array.from({ length: n }, (_, t) => new Date(start + t * WEEK)), values: y, filled: new Array<boolean>(n).fill(false), warnings: [] };
+  const series = datedSeries(simulate(41, n, true));
 
   test("TBATS's fit table carries the holiday weeks, and one backtest scores it with and without them", () => {
     const bt = { methods: ["tbats"], testWeeks: 20, horizon: 4, modes: ["fixed" as const], methodOptions: { tbats: FIXED } };
     const r = analyse(series, { method: "auto", horizon: 8, checks: false, calendar: { lunarNewYear: true }, backtest: bt });
     expect(r.tables.fit.rows.map((x) => x[0])).toContain("Lunar new year week +1");
-    const t = r.tables.backtest;
-    if (!t) throw new Error("no backtest");
-    const col = (c: string): number => t.columns.indexOf(c);
     const mase = (label: string): number => {
-      const rows = t.rows.filter((x) => x[col("Method")] === label);
-      expect(rows).toHaveLength(4);
-      return rows.reduce((a, x) => a + Number(x[col("MASE")]), 0) / rows.length;
+      const m = backtestMase(r, label);
+      expect(m.rows).toBe(4);
+      return m.mean;
     };
     expect(mase("TBATS")).toBeLessThan(mase("TBATS without calendar effects"));
     expect(r.model.method).toBe("tbats");

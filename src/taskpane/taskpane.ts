@@ -262,39 +262,33 @@ async function readData(): Promise<{ source: DataSource; name: string } | null> 
   let blocks: SelectionBlocks | undefined;
   try {
     let source: DataSource;
-    let name: string;
     if (sourceKind() === "table") {
       const chosen = tableChosen();
       if (!chosen) throw new Error("no table");
       source = chosen;
-      const read = await sourceCells(chosen);
-      blocks = read;
-      name = read.name;
     } else {
       const selected = await currentSelection();
       blocks = selected;
       source = withEvents(sourceFromSelection(selected), byId<HTMLInputElement>("range-events").value);
-      // What a run reads: the same columns from the same top row down to the last filled cell,
-      // so the summary shows exactly the weeks Run will analyse (and a refresh will extend).
-      const read = await sourceCells(source);
-      blocks = read;
-      name = read.name;
     }
-    const view = summariseBlocks(blocks);
-    showSummary(view);
-    setText("data-status", `Read ${view.weeks} weeks of ${name}${view.events ? `, ${view.events.weeks.length} event week${view.events.weeks.length === 1 ? "" : "s"} marked in ${view.events.column}` : ""}.`);
     // A series analysed before: show the options it was run with, and keep its event column
     // unless the field was edited in this session (a blank field at start-up is not a choice).
     const saved = state.settings.series.find((s) => sameSource(s.source, source));
-    if (saved) fillForm(formFromOptions(saved.options));
-    if (saved && !state.eventsEdited && eventsText(source) === "" && eventsText(saved.source) !== "") {
+    const restored = saved !== undefined && !state.eventsEdited && eventsText(source) === "" && eventsText(saved.source) !== "";
+    if (saved && restored) {
       source = withEvents(source, eventsText(saved.source));
       byId<HTMLInputElement | HTMLSelectElement>(source.kind === "table" ? "table-events" : "range-events").value = eventsText(saved.source);
-      const again = await sourceCells(source);
-      const marked = summariseBlocks(again);
-      showSummary(marked);
-      setText("data-status", `Read ${marked.weeks} weeks of ${name}${marked.events ? `, ${marked.events.weeks.length} event week${marked.events.weeks.length === 1 ? "" : "s"} marked in ${marked.events.column} (as in its last run)` : ""}.`);
     }
+    // What a run reads: the same columns from the same top row down to the last filled cell,
+    // so the summary shows exactly the weeks Run will analyse (and a refresh will extend).
+    const read = await sourceCells(source);
+    blocks = read;
+    const name = read.name;
+    const view = summariseBlocks(read);
+    showSummary(view);
+    const marked = view.events ? `, ${view.events.weeks.length} event week${view.events.weeks.length === 1 ? "" : "s"} marked in ${view.events.column}${restored ? " (as in its last run)" : ""}` : "";
+    setText("data-status", `Read ${view.weeks} weeks of ${name}${marked}.`);
+    if (saved) fillForm(formFromOptions(saved.options));
     state.current = { source, name };
     return state.current;
   } catch (e) {

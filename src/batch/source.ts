@@ -232,6 +232,12 @@ export function chooseColumns(block: Block, choice: ColumnChoice): { dates: numb
   return { dates, rates };
 }
 
+/** An intake error of a block, led by `lead` and followed by the sheet cell (or the file's line) it points at. */
+function inBlock(block: Block, lead: string, e: InputError): InputError {
+  const where = e.cell && block.sheet !== null ? ` (cell ${block.sheet}!${cellName(e.cell.row, e.cell.col)})` : e.cell ? ` (line ${e.cell.row + 1} of the file)` : "";
+  return new InputError(e.code, `${lead}: ${e.message}${where}`, e.cell);
+}
+
 /**
  * The event weeks a column of marks names (core/series/eventRegressors.ts): the dates, in the
  * date column, of its rows marked 1, x or TRUE; rows below the last rate count when dated. A
@@ -251,8 +257,7 @@ export function eventColumnWeeks(block: Block, name: string, dates: number | nul
     });
   } catch (e) {
     if (!isInputError(e)) throw e;
-    const where = e.cell && block.sheet !== null ? ` (cell ${block.sheet}!${cellName(e.cell.row, e.cell.col)})` : e.cell ? ` (line ${e.cell.row + 1} of the file)` : "";
-    throw new InputError(e.code, `${block.label}: ${e.message}${where}`, e.cell);
+    throw inBlock(block, block.label, e);
   }
 }
 
@@ -274,7 +279,6 @@ export function readSeries(block: Block, rate: number, dates: number | null): We
     return { ...series, name: block.headers[rate] };
   } catch (e) {
     if (!isInputError(e)) throw e;
-    const where = e.cell && block.sheet !== null ? ` (cell ${block.sheet}!${cellName(e.cell.row, e.cell.col)})` : e.cell ? ` (line ${e.cell.row + 1} of the file)` : "";
-    throw new InputError(e.code, `${block.label}, column "${block.headers[rate]}": ${e.message}${where}`, e.cell);
+    throw inBlock(block, `${block.label}, column "${block.headers[rate]}"`, e);
   }
 }
